@@ -1,0 +1,126 @@
+//! Command-line entry: headless subcommands over project files.
+//!
+//! Exit codes: 0 solved, 2 bad input (message on stderr), 3 no valid equilibrium
+//! (diagnostic on stderr).
+
+use std::path::{Path, PathBuf};
+use std::process::ExitCode;
+
+use clap::{Parser, Subcommand};
+use rigwright_core::{Equilibrium, Model, Project, SolveError, Statics};
+
+mod report;
+
+/// Exit code for bad input.
+pub const EXIT_BAD_INPUT: u8 = 2;
+/// Exit code when there is no valid equilibrium.
+pub const EXIT_NO_EQUILIBRIUM: u8 = 3;
+
+#[derive(Parser, Debug)]
+#[command(name = "rigwright", version, about = "Large-displacement statics of cable-and-spring rigs")]
+pub struct Cli {
+    #[command(subcommand)]
+    pub command: Command,
+}
+
+#[derive(Subcommand, Debug)]
+pub enum Command {
+    /// Solve the static equilibrium of a load case and print member forces and reactions.
+    Solve {
+        /// Project file (*.rig.ron).
+        file: PathBuf,
+        /// Load case name (default: the first case).
+        #[arg(long)]
+        case: Option<String>,
+        /// Print one JSON document (SI units) instead of tables.
+        #[arg(long)]
+        json: bool,
+        /// Also print the condensed tangent stiffness at this node.
+        #[arg(long)]
+        stiffness: Option<String>,
+    },
+}
+
+/// Runs the command line and returns the process exit code.
+pub fn main() -> ExitCode {
+    let cli = match Cli::try_parse() {
+        Ok(c) => c,
+        Err(e) => {
+            let _ = e.print();
+            return if e.use_stderr() { ExitCode::from(EXIT_BAD_INPUT) } else { ExitCode::SUCCESS };
+        }
+    };
+    match run(cli.command) {
+        Ok(()) => ExitCode::SUCCESS,
+        Err(Failure { code, message }) => {
+            eprintln!("rigwright: {message}");
+            ExitCode::from(code)
+        }
+    }
+}
+
+/// An error that ends the command, with its exit code.
+#[derive(Debug)]
+pub struct Failure {
+    pub code: u8,
+    pub message: String,
+}
+
+impl Failure {
+    fn input(message: impl Into<String>) -> Self {
+        Failure { code: EXIT_BAD_INPUT, message: message.into() }
+    }
+}
+
+fn load(path: &Path) -> Result<(Project, Model), Failure> {
+    Project::load_model(path).map_err(|e| Failure::input(format!("{}: {e}", path.display())))
+}
+
+fn case_index(model: &Model, case: Option<&str>) -> Result<usize, Failure> {
+    match case {
+        None => Ok(0),
+        Some(name) => model.case_index(name).ok_or_else(|| Failure::input(SolveError::UnknownCase(name.into(), case_list(model)).to_string())),
+    }
+}
+
+fn case_list(model: &Model) -> String {
+    model.cases.iter().map(|c| format!("`{}`", c.name)).collect::<Vec<_>>().join(", ")
+}
+
+/// Runs one subcommand.
+pub fn run(command: Command) -> Result<(), Failure> {
+    match command {
+        Command::Solve { file, case, json, stiffness } => {
+            let (_, model) = load(&file)?;
+            let case = case_index(&model, case.as_deref())?;
+            let statics = Statics::new(&model);
+            let node = match &stiffness {
+                Some(id) => Some(model.node_index(id).ok_or_else(|| Failure::input(format!("node `{id}` does not exist; check the id")))?),
+                None => None,
+            };
+            let result = statics.solve(case, None);
+            let eq: Equilibrium = match result {
+                Ok(eq) => eq,
+                Err(e) => {
+                    if json {
+                        println!("{}", report::failure_json(&model, case, &e));
+                    }
+                    return Err(Failure { code: EXIT_NO_EQUILIBRIUM, message: e.to_string() });
+                }
+            };
+            let k = match node {
+                Some(n) if eq.stability.is_stable() => Some(statics.node_stiffness(&eq, n).map_err(|e| Failure::input(e.to_string()))?),
+                _ => None,
+            };
+            if json {
+                println!("{}", report::solve_json(&eq, k.as_ref()));
+            } else {
+                print!("{}", report::solve_table(&model, &eq, k.as_ref()));
+            }
+            if !eq.stability.is_stable() {
+                return Err(Failure { code: EXIT_NO_EQUILIBRIUM, message: eq.stability.describe() });
+            }
+            Ok(())
+        }
+    }
+}

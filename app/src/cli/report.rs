@@ -1,0 +1,105 @@
+//! Text and JSON renderings of results for the command line.
+
+use std::fmt::Write;
+
+use rigwright_core::{Equilibrium, Model, NodeStiffness, SolveError};
+use serde_json::{Value, json};
+
+fn v3(v: &rigwright_core::Vec3) -> Value {
+    json!([v.x, v.y, v.z])
+}
+
+/// `rigwright.solve/1` document.
+pub fn solve_json(eq: &Equilibrium, k: Option<&NodeStiffness>) -> String {
+    let nodes: Vec<Value> = eq
+        .nodes
+        .iter()
+        .map(|n| json!({"id": n.id, "position": v3(&n.position), "displacement": v3(&n.displacement), "reaction": n.reaction.as_ref().map(v3)}))
+        .collect();
+    let members: Vec<Value> = eq
+        .members
+        .iter()
+        .map(|m| {
+            json!({"id": m.id, "kind": m.kind.name(), "force": m.force, "length": m.length,
+                   "unstressed_length": m.unstressed_length, "strain": m.strain, "slack": m.slack})
+        })
+        .collect();
+    let mut doc = json!({
+        "format": "rigwright.solve/1",
+        "units": {"length": "m", "force": "N", "stiffness": "N/m"},
+        "case": eq.case,
+        "converged": true,
+        "stable": eq.stability.is_stable(),
+        "stability": eq.stability,
+        "iterations": eq.iterations,
+        "load_steps": eq.load_steps,
+        "residual": eq.residual,
+        "nodes": nodes,
+        "members": members,
+    });
+    if let Some(k) = k {
+        doc["stiffness"] = serde_json::to_value(k).expect("stiffness serialises");
+    }
+    serde_json::to_string_pretty(&doc).expect("json")
+}
+
+/// JSON printed when no equilibrium was found.
+pub fn failure_json(model: &Model, case: usize, e: &SolveError) -> String {
+    let doc = json!({
+        "format": "rigwright.solve/1",
+        "case": model.cases[case].name,
+        "converged": false,
+        "stable": false,
+        "diagnostic": e.to_string(),
+    });
+    serde_json::to_string_pretty(&doc).expect("json")
+}
+
+/// Readable tables of members, nodes and (optionally) the stiffness at a node.
+pub fn solve_table(model: &Model, eq: &Equilibrium, k: Option<&NodeStiffness>) -> String {
+    let mut s = String::new();
+    let title = if model.title.is_empty() { "(untitled rig)" } else { &model.title };
+    let _ = writeln!(s, "{title} — load case `{}`", eq.case);
+    let _ = writeln!(
+        s,
+        "{}; {} Newton iterations in {} load step(s), relative residual {:.2e}\n",
+        eq.stability.describe(),
+        eq.iterations,
+        eq.load_steps,
+        eq.residual
+    );
+    let _ = writeln!(s, "{:<14} {:<7} {:>14} {:>12} {:>12} {:>10}  state", "member", "kind", "force [N]", "length [m]", "L0 [m]", "strain");
+    for m in &eq.members {
+        let state = if m.slack {
+            "SLACK"
+        } else if m.force < 0.0 {
+            "compression"
+        } else {
+            "tension"
+        };
+        let _ = writeln!(s, "{:<14} {:<7} {:>14.2} {:>12.5} {:>12.5} {:>10.3e}  {state}", m.id, m.kind.name(), m.force, m.length, m.unstressed_length, m.strain);
+    }
+    let _ = writeln!(s, "\n{:<14} {:>30} {:>36}", "node", "displacement [mm] (x, y, z)", "reaction [N] (x, y, z)");
+    for n in &eq.nodes {
+        let d = n.displacement * 1000.0;
+        let r = match &n.reaction {
+            Some(r) => format!("({:.2}, {:.2}, {:.2})", r.x, r.y, r.z),
+            None => "—".into(),
+        };
+        let _ = writeln!(s, "{:<14} {:>30} {:>36}", n.id, format!("({:.3}, {:.3}, {:.3})", d.x, d.y, d.z), r);
+    }
+    if let Some(k) = k {
+        let axes: Vec<&str> = k.axes.iter().map(|a| ["x", "y", "z"][*a]).collect();
+        let _ = writeln!(s, "\ntangent stiffness at node `{}` [N/m], axes {}:", k.node, axes.join(", "));
+        for (label, mat) in [("total", &k.total), ("elastic", &k.elastic), ("geometric", &k.geometric)] {
+            let _ = writeln!(s, "  {label}:");
+            for row in mat {
+                let _ = writeln!(s, "    {}", row.iter().map(|v| format!("{v:>14.2}")).collect::<Vec<_>>().join(" "));
+            }
+        }
+        for p in &k.principal {
+            let _ = writeln!(s, "  principal {:>14.2} N/m along ({:.3}, {:.3}, {:.3})", p.value, p.direction.x, p.direction.y, p.direction.z);
+        }
+    }
+    s
+}

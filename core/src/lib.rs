@@ -1,0 +1,28 @@
+//! # rigwright-core
+//!
+//! The mechanics of tensioned cable-and-spring rigs, with no GUI dependency.
+//!
+//! Data flows one way: a project document as stored on disk ([`Project`]) is checked and
+//! turned into a validated [`Model`]; the solvers borrow the model and return plain result
+//! values ([`Equilibrium`], [`NodeStiffness`], …) that the app draws and the sheet prints.
+//!
+//! * [`model`]: nodes, members, load cases, the project file and its validation.
+//! * [`element`]: the force law of each member kind and its tangent stiffness.
+//! * [`solve`]: assembly, large-displacement equilibrium, condensed stiffness.
+//!
+//! Units are SI throughout: metres, newtons, kilograms, seconds.
+
+pub mod element;
+pub mod gallery;
+pub mod model;
+pub mod solve;
+
+pub use element::{MemberKind, MemberState};
+pub use model::{
+    Axis, Member, Model, Node, Problem, Project, ProjectError, Rest, Support, Vec3,
+    FILE_EXTENSION, FORMAT_VERSION,
+};
+pub use solve::{
+    Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, SolveError, SolveSettings,
+    Stability, Statics,
+};

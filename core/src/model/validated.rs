@@ -1,0 +1,327 @@
+//! The validated model: what the solvers borrow.
+
+use std::collections::HashMap;
+use std::fmt;
+
+use super::Vec3;
+use super::project::{MemberDocKind, Project, Rest};
+use crate::element::MemberKind;
+
+/// One thing wrong with a project, naming the item and suggesting a fix.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Problem {
+    /// The item at fault, e.g. "member `stay-3`".
+    pub item: String,
+    /// What is wrong.
+    pub problem: String,
+    /// How to fix it.
+    pub hint: String,
+}
+
+impl Problem {
+    pub fn new(item: impl Into<String>, problem: impl Into<String>, hint: impl Into<String>) -> Self {
+        Problem { item: item.into(), problem: problem.into(), hint: hint.into() }
+    }
+}
+
+impl fmt::Display for Problem {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "{}: {}; {}", self.item, self.problem, self.hint)
+    }
+}
+
+/// Which translations of a node are held.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Support {
+    pub fixed: [bool; 3],
+}
+
+impl Support {
+    /// Nothing held.
+    pub const FREE: Support = Support { fixed: [false; 3] };
+    /// Everything held.
+    pub const ANCHOR: Support = Support { fixed: [true; 3] };
+
+    /// True when any direction is held (the node has a reaction).
+    pub fn is_supported(&self) -> bool {
+        self.fixed.iter().any(|f| *f)
+    }
+
+    /// True when all directions are held.
+    pub fn is_anchor(&self) -> bool {
+        self.fixed.iter().all(|f| *f)
+    }
+}
+
+/// A validated node.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Node {
+    pub id: String,
+    /// Position as drawn (m).
+    pub position: Vec3,
+    /// Lumped mass (kg), including half of each attached member's own mass.
+    pub mass: f64,
+    /// Held directions, after the planar constraint is applied.
+    pub support: Support,
+}
+
+/// A validated member with its rest length resolved.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Member {
+    pub id: String,
+    /// Node indices of the ends.
+    pub ends: [usize; 2],
+    pub kind: MemberKind,
+}
+
+/// A load case: gravity multiplier and nodal point loads (N).
+#[derive(Debug, Clone, PartialEq)]
+pub struct LoadCase {
+    pub name: String,
+    pub gravity: f64,
+    /// (node index, force) pairs.
+    pub loads: Vec<(usize, Vec3)>,
+}
+
+/// A rig ready for the solvers. Build it with [`Project::validate`].
+#[derive(Debug, Clone, PartialEq)]
+pub struct Model {
+    pub title: String,
+    pub planar: bool,
+    /// Gravitational acceleration (m/s²).
+    pub gravity: Vec3,
+    pub nodes: Vec<Node>,
+    pub members: Vec<Member>,
+    pub cases: Vec<LoadCase>,
+}
+
+fn finite3(v: (f64, f64, f64)) -> bool {
+    v.0.is_finite() && v.1.is_finite() && v.2.is_finite()
+}
+
+fn v3(v: (f64, f64, f64)) -> Vec3 {
+    Vec3::new(v.0, v.1, v.2)
+}
+
+impl Model {
+    /// Index of the node with this id.
+    pub fn node_index(&self, id: &str) -> Option<usize> {
+        self.nodes.iter().position(|n| n.id == id)
+    }
+
+    /// True when the node is held in a direction that carries a reaction (the implicit z
+    /// restraint of a planar rig does not count).
+    pub fn has_reaction(&self, node: usize) -> bool {
+        let f = self.nodes[node].support.fixed;
+        f[0] || f[1] || (f[2] && !self.planar)
+    }
+
+    /// Index of the member with this id.
+    pub fn member_index(&self, id: &str) -> Option<usize> {
+        self.members.iter().position(|m| m.id == id)
+    }
+
+    /// Index of the load case with this name.
+    pub fn case_index(&self, name: &str) -> Option<usize> {
+        self.cases.iter().position(|c| c.name == name)
+    }
+
+    /// Diagonal of the bounding box of the drawn geometry (m), at least 1 mm.
+    pub fn extent(&self) -> f64 {
+        let mut lo = Vec3::repeat(f64::INFINITY);
+        let mut hi = Vec3::repeat(f64::NEG_INFINITY);
+        for n in &self.nodes {
+            lo = lo.inf(&n.position);
+            hi = hi.sup(&n.position);
+        }
+        if self.nodes.is_empty() { 1e-3 } else { (hi - lo).norm().max(1e-3) }
+    }
+
+    /// External load vector of a case at full load, one force per node (N).
+    pub fn case_forces(&self, case: usize) -> Vec<Vec3> {
+        let c = &self.cases[case];
+        let mut f: Vec<Vec3> = self.nodes.iter().map(|n| self.gravity * (n.mass * c.gravity)).collect();
+        for (node, force) in &c.loads {
+            f[*node] += force;
+        }
+        f
+    }
+
+    /// Checks a project and builds the model, or lists every problem found.
+    pub fn from_project(p: &Project) -> Result<Model, Vec<Problem>> {
+        let mut problems = Vec::new();
+        let mut index: HashMap<&str, usize> = HashMap::new();
+        if !finite3(p.gravity) {
+            problems.push(Problem::new("gravity", "is not a finite vector", "write three numbers, e.g. (0.0, -9.81, 0.0)"));
+        }
+        let mut nodes = Vec::with_capacity(p.nodes.len());
+        for (i, n) in p.nodes.iter().enumerate() {
+            let item = format!("node `{}`", n.id);
+            if n.id.trim().is_empty() {
+                problems.push(Problem::new(format!("node #{}", i + 1), "has an empty id", "give every node a short unique name"));
+            } else if index.insert(n.id.as_str(), i).is_some() {
+                problems.push(Problem::new(&item, "id is used by more than one node", "rename one of them"));
+            }
+            if !finite3(n.at) {
+                problems.push(Problem::new(&item, "position is not finite (NaN or infinity)", "give three finite coordinates in metres"));
+            }
+            if !(n.mass.is_finite() && n.mass >= 0.0) {
+                problems.push(Problem::new(&item, format!("mass {} kg is not allowed", n.mass), "use a mass of 0 kg or more"));
+            }
+            if p.planar && n.at.2 != 0.0 {
+                problems.push(Problem::new(&item, format!("z = {} m in a planar project", n.at.2), "set z to 0, or clear `planar` for a 3D rig"));
+            }
+            let mut fixed = n.fixed;
+            if p.planar {
+                fixed[2] = true;
+            }
+            nodes.push(Node { id: n.id.clone(), position: v3(n.at), mass: n.mass.max(0.0), support: Support { fixed } });
+        }
+
+        let mut member_ids: HashMap<&str, usize> = HashMap::new();
+        let mut members = Vec::with_capacity(p.members.len());
+        let mut connected = vec![false; nodes.len()];
+        for (i, m) in p.members.iter().enumerate() {
+            let item = format!("member `{}`", m.id);
+            if m.id.trim().is_empty() {
+                problems.push(Problem::new(format!("member #{}", i + 1), "has an empty id", "give every member a short unique name"));
+            } else if member_ids.insert(m.id.as_str(), i).is_some() {
+                problems.push(Problem::new(&item, "id is used by more than one member", "rename one of them"));
+            }
+            let a = index.get(m.ends.0.as_str()).copied();
+            let b = index.get(m.ends.1.as_str()).copied();
+            for (end, found) in [(&m.ends.0, a), (&m.ends.1, b)] {
+                if found.is_none() {
+                    problems.push(Problem::new(&item, format!("end node `{end}` does not exist"), "check the spelling or add that node"));
+                }
+            }
+            if !(m.mass_per_length.is_finite() && m.mass_per_length >= 0.0) {
+                problems.push(Problem::new(&item, format!("mass per length {} kg/m is not allowed", m.mass_per_length), "use 0 kg/m or more"));
+            }
+            let (Some(a), Some(b)) = (a, b) else { continue };
+            if a == b {
+                problems.push(Problem::new(&item, "both ends are the same node", "connect two different nodes"));
+                continue;
+            }
+            connected[a] = true;
+            connected[b] = true;
+            let drawn = (nodes[b].position - nodes[a].position).norm();
+            if !drawn.is_finite() {
+                continue;
+            }
+            if drawn < 1e-9 {
+                problems.push(Problem::new(&item, format!("zero length: nodes `{}` and `{}` coincide", nodes[a].id, nodes[b].id), "move one node, or merge the two"));
+                continue;
+            }
+            match resolve_kind(&m.kind, drawn) {
+                Ok(kind) => {
+                    let w = m.mass_per_length * kind.rest_length() * 0.5;
+                    nodes[a].mass += w;
+                    nodes[b].mass += w;
+                    members.push(Member { id: m.id.clone(), ends: [a, b], kind });
+                }
+                Err((problem, hint)) => problems.push(Problem::new(&item, problem, hint)),
+            }
+        }
+        for (i, n) in nodes.iter().enumerate() {
+            if !connected[i] && !n.support.is_anchor() {
+                problems.push(Problem::new(
+                    format!("node `{}`", n.id),
+                    "is tied to nothing: no member ends there",
+                    "connect it with a member, make it an anchor, or delete it",
+                ));
+            }
+        }
+        if !nodes.is_empty() && !nodes.iter().any(|n| n.support.is_supported()) {
+            problems.push(Problem::new("rig", "has no support, so it can float away", "make at least one node an anchor"));
+        }
+
+        let mut cases = Vec::new();
+        if p.cases.is_empty() {
+            cases.push(LoadCase { name: "gravity".into(), gravity: 1.0, loads: Vec::new() });
+        }
+        let mut case_names: HashMap<&str, ()> = HashMap::new();
+        for c in &p.cases {
+            let item = format!("load case `{}`", c.name);
+            if case_names.insert(c.name.as_str(), ()).is_some() {
+                problems.push(Problem::new(&item, "name is used by more than one load case", "rename one of them"));
+            }
+            if !c.gravity.is_finite() {
+                problems.push(Problem::new(&item, "gravity multiplier is not finite", "use 1 for self-weight, 0 for none"));
+            }
+            let mut loads = Vec::new();
+            for l in &c.loads {
+                match index.get(l.node.as_str()) {
+                    None => problems.push(Problem::new(&item, format!("load on node `{}`, which does not exist", l.node), "check the node id")),
+                    Some(&n) if !finite3(l.force) => {
+                        problems.push(Problem::new(&item, format!("load on node `{}` is not finite", nodes[n].id), "give three finite force components in newtons"))
+                    }
+                    Some(&n) => loads.push((n, v3(l.force))),
+                }
+            }
+            cases.push(LoadCase { name: c.name.clone(), gravity: c.gravity, loads });
+        }
+
+        if problems.is_empty() {
+            Ok(Model { title: p.title.clone(), planar: p.planar, gravity: v3(p.gravity), nodes, members, cases })
+        } else {
+            Err(problems)
+        }
+    }
+}
+
+/// Resolves the stored member law to a [`MemberKind`] for drawn length `drawn` (m).
+fn resolve_kind(kind: &MemberDocKind, drawn: f64) -> Result<MemberKind, (String, String)> {
+    let positive = |what: &str, v: f64, unit: &str| -> Result<f64, (String, String)> {
+        if v.is_finite() && v > 0.0 { Ok(v) } else { Err((format!("{what} {v} {unit} is not allowed"), format!("give a positive {what}"))) }
+    };
+    match *kind {
+        MemberDocKind::Cable { ea, rest } | MemberDocKind::Strut { ea, rest } => {
+            let ea = positive("EA", ea, "N")?;
+            let is_cable = matches!(kind, MemberDocKind::Cable { .. });
+            let l0 = match rest {
+                Rest::AsDrawn => drawn,
+                Rest::Length(l) => positive("unstressed length", l, "m")?,
+                Rest::Tension(t) => {
+                    if !t.is_finite() {
+                        return Err(("pretension is not finite".into(), "give a finite force in newtons".into()));
+                    }
+                    if is_cable && t < 0.0 {
+                        return Err((format!("pretension {t} N is compression, which a cable cannot carry"), "give a tension of 0 N or more, or use a strut".into()));
+                    }
+                    if t <= -ea {
+                        return Err((format!("force {t} N would need a zero or negative unstressed length"), "reduce the compression below EA".into()));
+                    }
+                    drawn / (1.0 + t / ea)
+                }
+            };
+            Ok(if is_cable { MemberKind::Cable { ea, l0 } } else { MemberKind::Strut { ea, l0 } })
+        }
+        MemberDocKind::Spring { rate, rest } => {
+            let k = positive("rate", rate, "N/m")?;
+            let l0 = match rest {
+                Rest::AsDrawn => drawn,
+                Rest::Length(l) => {
+                    if !(l.is_finite() && l >= 0.0) {
+                        return Err((format!("free length {l} m is not allowed"), "give a free length of 0 m or more".into()));
+                    }
+                    l
+                }
+                Rest::Tension(t) => {
+                    if !t.is_finite() {
+                        return Err(("preload is not finite".into(), "give a finite force in newtons".into()));
+                    }
+                    let l0 = drawn - t / k;
+                    if l0 < 0.0 {
+                        return Err((
+                            format!("preload {t} N needs a free length of {l0:.4} m, below zero"),
+                            "lower the preload, raise the rate, or give the free length instead".into(),
+                        ));
+                    }
+                    l0
+                }
+            };
+            Ok(MemberKind::Spring { k, l0 })
+        }
+    }
+}

@@ -1,0 +1,143 @@
+//! Result values: plain data the app draws and the sheet prints.
+
+use serde::Serialize;
+
+use crate::element::MemberClass;
+use crate::model::Vec3;
+
+/// Whether an equilibrium is a usable answer.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+#[serde(tag = "state", rename_all = "snake_case")]
+pub enum Stability {
+    /// The tangent stiffness is positive definite: a stable equilibrium.
+    Stable,
+    /// The tangent stiffness is singular: `node` can move along `direction` with no
+    /// restoring force.
+    Mechanism { node: String, direction: [f64; 3] },
+    /// The tangent stiffness has a negative eigenvalue (N/m): the rig would buckle or snap,
+    /// most strongly at `node` along `direction`.
+    Unstable { node: String, direction: [f64; 3], eigenvalue: f64 },
+}
+
+impl Stability {
+    pub fn is_stable(&self) -> bool {
+        matches!(self, Stability::Stable)
+    }
+
+    /// One sentence for users.
+    pub fn describe(&self) -> String {
+        let d = |v: &[f64; 3]| format!("({:.3}, {:.3}, {:.3})", v[0], v[1], v[2]);
+        match self {
+            Stability::Stable => "stable equilibrium".into(),
+            Stability::Mechanism { node, direction } => format!(
+                "mechanism: node `{node}` can move along {} with no restoring force; add a member, a support or pretension there",
+                d(direction)
+            ),
+            Stability::Unstable { node, direction, eigenvalue } => format!(
+                "unstable equilibrium (lowest tangent stiffness {eigenvalue:.4e} N/m): node `{node}` would move along {}; brace it or reduce the compression",
+                d(direction)
+            ),
+        }
+    }
+}
+
+/// Result for one node.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct NodeResult {
+    pub id: String,
+    /// Equilibrium position (m).
+    pub position: Vec3,
+    /// Displacement from the drawn position (m).
+    pub displacement: Vec3,
+    /// Force the support exerts on the rig (N), for supported nodes; zero on free axes.
+    pub reaction: Option<Vec3>,
+}
+
+/// Result for one member.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct MemberResult {
+    pub id: String,
+    pub kind: MemberClass,
+    /// Axial force (N), tension positive.
+    pub force: f64,
+    /// Current length (m).
+    pub length: f64,
+    /// Unstressed (cable, strut) or free (spring) length (m).
+    pub unstressed_length: f64,
+    /// Engineering strain `(L − L0)/L0`; for a zero-free-length spring, the stretch (m).
+    pub strain: f64,
+    /// True for a slack cable.
+    pub slack: bool,
+}
+
+/// A node held at a prescribed position, and the force needed to hold it.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Hold {
+    pub node: usize,
+    /// Where it is held (m).
+    pub position: Vec3,
+    /// Force the hand applies to hold it there (N); the rig's restoring force is its negative.
+    pub force: Vec3,
+}
+
+/// A solved equilibrium of one load case.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Equilibrium {
+    pub case: String,
+    pub nodes: Vec<NodeResult>,
+    pub members: Vec<MemberResult>,
+    /// Newton iterations over all load steps.
+    pub iterations: usize,
+    /// Load steps taken (1 when the full load converged at once).
+    pub load_steps: usize,
+    /// Final relative residual `‖f_int − f_ext‖ / scale`.
+    pub residual: f64,
+    pub stability: Stability,
+    pub hold: Option<Hold>,
+}
+
+impl Equilibrium {
+    /// Node positions (m), in model order.
+    pub fn positions(&self) -> Vec<Vec3> {
+        self.nodes.iter().map(|n| n.position).collect()
+    }
+}
+
+/// A principal stiffness and its direction.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Principal {
+    /// Stiffness (N/m).
+    pub value: f64,
+    /// Unit direction (global axes).
+    pub direction: Vec3,
+}
+
+/// Tangent stiffness condensed to one node's free directions: the force per unit displacement
+/// of that node when every other free node is allowed to re-equilibrate.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct NodeStiffness {
+    pub node: String,
+    /// Free axes of the node (0 = x, 1 = y, 2 = z), the rows and columns of the matrices.
+    pub axes: Vec<usize>,
+    /// Condensed tangent stiffness `K_T` (N/m), row-major.
+    pub total: Vec<Vec<f64>>,
+    /// Elastic part (N/m); `elastic + geometric = total`.
+    pub elastic: Vec<Vec<f64>>,
+    /// Geometric part (N/m).
+    pub geometric: Vec<Vec<f64>>,
+    /// Principal stiffnesses, smallest first.
+    pub principal: Vec<Principal>,
+}
+
+impl NodeStiffness {
+    /// Stiffness along unit direction `d`: `dᵀ K d` over the free axes (N/m).
+    pub fn along(&self, d: &Vec3) -> f64 {
+        let mut s = 0.0;
+        for (i, &ai) in self.axes.iter().enumerate() {
+            for (j, &aj) in self.axes.iter().enumerate() {
+                s += d[ai] * self.total[i][j] * d[aj];
+            }
+        }
+        s
+    }
+}
