@@ -98,9 +98,19 @@ impl MemberKind {
         let stretch = l - l0;
         let slack = matches!(self, MemberKind::Cable { .. }) && stretch <= 0.0;
         if slack {
-            return MemberState { force: 0.0, axial_stiffness: 0.0, energy: 0.0, slack: true };
+            return MemberState {
+                force: 0.0,
+                axial_stiffness: 0.0,
+                energy: 0.0,
+                slack: true,
+            };
         }
-        MemberState { force: k * stretch, axial_stiffness: k, energy: 0.5 * k * stretch * stretch, slack: false }
+        MemberState {
+            force: k * stretch,
+            axial_stiffness: k,
+            energy: 0.5 * k * stretch * stretch,
+            slack: false,
+        }
     }
 
     /// Elastic and geometric 3×3 tangent blocks `(k_a ê êᵀ, (N/L)(I − ê êᵀ))` for unit
@@ -152,7 +162,12 @@ mod tests {
                 let col = (end_force(&kind, xa, dp) - end_force(&kind, xa, dm)) / (2.0 * h);
                 for i in 0..3 {
                     let scale = k.abs().max().max(1.0);
-                    assert!((col[i] - k[(i, j)]).abs() < 1e-6 * scale, "{kind:?} ({i},{j}): fd {} vs {}", col[i], k[(i, j)]);
+                    assert!(
+                        (col[i] - k[(i, j)]).abs() < 1e-6 * scale,
+                        "{kind:?} ({i},{j}): fd {} vs {}",
+                        col[i],
+                        k[(i, j)]
+                    );
                 }
             }
         }

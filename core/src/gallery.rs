@@ -28,19 +28,36 @@ pub fn cable_net(n: usize, spacing: f64, ea: f64, pretension: f64, node_mass: f6
             });
         }
     }
-    let cable = || MemberDocKind::Cable { ea, rest: Rest::Tension(pretension) };
+    let cable = || MemberDocKind::Cable {
+        ea,
+        rest: Rest::Tension(pretension),
+    };
     for i in 0..n {
         for j in 0..n {
             // Members run between neighbours where at least one end is free.
             if i + 1 < n && !edge(j) {
-                p.members.push(MemberDoc { id: format!("x{i}_{j}"), ends: (id(i, j), id(i + 1, j)), kind: cable(), mass_per_length: 0.0 });
+                p.members.push(MemberDoc {
+                    id: format!("x{i}_{j}"),
+                    ends: (id(i, j), id(i + 1, j)),
+                    kind: cable(),
+                    mass_per_length: 0.0,
+                });
             }
             if j + 1 < n && !edge(i) {
-                p.members.push(MemberDoc { id: format!("z{i}_{j}"), ends: (id(i, j), id(i, j + 1)), kind: cable(), mass_per_length: 0.0 });
+                p.members.push(MemberDoc {
+                    id: format!("z{i}_{j}"),
+                    ends: (id(i, j), id(i, j + 1)),
+                    kind: cable(),
+                    mass_per_length: 0.0,
+                });
             }
         }
     }
-    p.cases.push(CaseDoc { name: "self-weight".into(), gravity: 1.0, loads: Vec::new() });
+    p.cases.push(CaseDoc {
+        name: "self-weight".into(),
+        gravity: 1.0,
+        loads: Vec::new(),
+    });
     p
 }
 
@@ -55,13 +72,21 @@ pub fn hanging_chain(links: usize, span: f64, length: f64, ea: f64, weight_per_l
         let x = span * k as f64 / links as f64;
         let y = -4.0 * sag * x * (span - x) / (span * span);
         let end = k == 0 || k == links;
-        p.nodes.push(NodeDoc { id: format!("p{k}"), at: (x, y, 0.0), mass: 0.0, fixed: [end; 3] });
+        p.nodes.push(NodeDoc {
+            id: format!("p{k}"),
+            at: (x, y, 0.0),
+            mass: 0.0,
+            fixed: [end; 3],
+        });
     }
     for k in 0..links {
         p.members.push(MemberDoc {
             id: format!("link{k}"),
             ends: (format!("p{k}"), format!("p{}", k + 1)),
-            kind: MemberDocKind::Cable { ea, rest: Rest::Length(length / links as f64) },
+            kind: MemberDocKind::Cable {
+                ea,
+                rest: Rest::Length(length / links as f64),
+            },
             mass_per_length: weight_per_length / gravity,
         });
     }

@@ -18,11 +18,5 @@ pub mod model;
 pub mod solve;
 
 pub use element::{MemberKind, MemberState};
-pub use model::{
-    Axis, Member, Model, Node, Problem, Project, ProjectError, Rest, Support, Vec3,
-    FILE_EXTENSION, FORMAT_VERSION,
-};
-pub use solve::{
-    Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, SolveError, SolveSettings,
-    Stability, Statics,
-};
+pub use model::{Axis, FILE_EXTENSION, FORMAT_VERSION, Member, Model, Node, Problem, Project, ProjectError, Rest, Support, Vec3};
+pub use solve::{Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, SolveError, SolveSettings, Stability, Statics};

@@ -19,5 +19,69 @@ pub fn rel(a: f64, b: f64) -> f64 {
 
 /// Path of a sample project, from the tests crate.
 pub fn sample(name: &str) -> std::path::PathBuf {
-    std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../sample-projects").join(name)
+    std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("../sample-projects")
+        .join(name)
+}
+
+use rigwright_core::model::{CaseDoc, LoadDoc, MemberDoc, MemberDocKind, NodeDoc, Rest};
+
+/// A free node at `at` (m) with mass (kg).
+pub fn node(id: &str, at: (f64, f64, f64), mass: f64) -> NodeDoc {
+    NodeDoc {
+        id: id.into(),
+        at,
+        mass,
+        fixed: [false; 3],
+    }
+}
+
+/// An anchor at `at` (m).
+pub fn anchor(id: &str, at: (f64, f64, f64)) -> NodeDoc {
+    NodeDoc {
+        id: id.into(),
+        at,
+        mass: 0.0,
+        fixed: [true; 3],
+    }
+}
+
+/// A member between two node ids.
+pub fn member(id: &str, a: &str, b: &str, kind: MemberDocKind) -> MemberDoc {
+    MemberDoc {
+        id: id.into(),
+        ends: (a.into(), b.into()),
+        kind,
+        mass_per_length: 0.0,
+    }
+}
+
+/// A cable of axial stiffness `ea` (N).
+pub fn cable(ea: f64, rest: Rest) -> MemberDocKind {
+    MemberDocKind::Cable { ea, rest }
+}
+
+/// A spring of rate `k` (N/m).
+pub fn spring(k: f64, rest: Rest) -> MemberDocKind {
+    MemberDocKind::Spring { rate: k, rest }
+}
+
+/// A strut of axial stiffness `ea` (N).
+pub fn strut(ea: f64, rest: Rest) -> MemberDocKind {
+    MemberDocKind::Strut { ea, rest }
+}
+
+/// A load case with the given gravity multiplier and point loads (node id, force in N).
+pub fn case(name: &str, gravity: f64, loads: &[(&str, (f64, f64, f64))]) -> CaseDoc {
+    CaseDoc {
+        name: name.into(),
+        gravity,
+        loads: loads
+            .iter()
+            .map(|(n, f)| LoadDoc {
+                node: (*n).into(),
+                force: *f,
+            })
+            .collect(),
+    }
 }

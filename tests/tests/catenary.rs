@@ -33,7 +33,10 @@ fn chain_of_links_converges_to_irvine_elastic_catenary_at_second_order() {
     // Error ∝ 1/N²: halving the link length quarters the error (ratio ≈ 4).
     let r1 = e10 / e20;
     let r2 = e20 / e40;
-    assert!((3.5..4.5).contains(&r1) && (3.5..4.5).contains(&r2), "ratios {r1} {r2}; H = {h10} {h20} {h40}");
+    assert!(
+        (3.5..4.5).contains(&r1) && (3.5..4.5).contains(&r2),
+        "ratios {r1} {r2}; H = {h10} {h20} {h40}"
+    );
     assert!(rel(h40, H_REF) < 2e-3, "H(40) = {h40}");
     // Richardson extrapolation from 20 and 40 links lands on the reference to 5 figures.
     let h_inf = h40 + (h40 - h20) / 3.0;

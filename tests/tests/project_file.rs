@@ -22,7 +22,10 @@ fn net_sample() -> Project {
     p.cases.push(rigwright_core::model::CaseDoc {
         name: "maintenance load".into(),
         gravity: 1.0,
-        loads: vec![rigwright_core::model::LoadDoc { node: "n3_3".into(), force: (0.0, -1000.0, 0.0) }],
+        loads: vec![rigwright_core::model::LoadDoc {
+            node: "n3_3".into(),
+            force: (0.0, -1000.0, 0.0),
+        }],
     });
     p
 }

@@ -47,7 +47,11 @@ pub fn main() -> ExitCode {
         Ok(c) => c,
         Err(e) => {
             let _ = e.print();
-            return if e.use_stderr() { ExitCode::from(EXIT_BAD_INPUT) } else { ExitCode::SUCCESS };
+            return if e.use_stderr() {
+                ExitCode::from(EXIT_BAD_INPUT)
+            } else {
+                ExitCode::SUCCESS
+            };
         }
     };
     match run(cli.command) {
@@ -68,7 +72,10 @@ pub struct Failure {
 
 impl Failure {
     fn input(message: impl Into<String>) -> Self {
-        Failure { code: EXIT_BAD_INPUT, message: message.into() }
+        Failure {
+            code: EXIT_BAD_INPUT,
+            message: message.into(),
+        }
     }
 }
 
@@ -79,7 +86,9 @@ fn load(path: &Path) -> Result<(Project, Model), Failure> {
 fn case_index(model: &Model, case: Option<&str>) -> Result<usize, Failure> {
     match case {
         None => Ok(0),
-        Some(name) => model.case_index(name).ok_or_else(|| Failure::input(SolveError::UnknownCase(name.into(), case_list(model)).to_string())),
+        Some(name) => model
+            .case_index(name)
+            .ok_or_else(|| Failure::input(SolveError::UnknownCase(name.into(), case_list(model)).to_string())),
     }
 }
 
@@ -90,12 +99,21 @@ fn case_list(model: &Model) -> String {
 /// Runs one subcommand.
 pub fn run(command: Command) -> Result<(), Failure> {
     match command {
-        Command::Solve { file, case, json, stiffness } => {
+        Command::Solve {
+            file,
+            case,
+            json,
+            stiffness,
+        } => {
             let (_, model) = load(&file)?;
             let case = case_index(&model, case.as_deref())?;
             let statics = Statics::new(&model);
             let node = match &stiffness {
-                Some(id) => Some(model.node_index(id).ok_or_else(|| Failure::input(format!("node `{id}` does not exist; check the id")))?),
+                Some(id) => Some(
+                    model
+                        .node_index(id)
+                        .ok_or_else(|| Failure::input(format!("node `{id}` does not exist; check the id")))?,
+                ),
                 None => None,
             };
             let result = statics.solve(case, None);
@@ -105,7 +123,10 @@ pub fn run(command: Command) -> Result<(), Failure> {
                     if json {
                         println!("{}", report::failure_json(&model, case, &e));
                     }
-                    return Err(Failure { code: EXIT_NO_EQUILIBRIUM, message: e.to_string() });
+                    return Err(Failure {
+                        code: EXIT_NO_EQUILIBRIUM,
+                        message: e.to_string(),
+                    });
                 }
             };
             let k = match node {
@@ -118,7 +139,10 @@ pub fn run(command: Command) -> Result<(), Failure> {
                 print!("{}", report::solve_table(&model, &eq, k.as_ref()));
             }
             if !eq.stability.is_stable() {
-                return Err(Failure { code: EXIT_NO_EQUILIBRIUM, message: eq.stability.describe() });
+                return Err(Failure {
+                    code: EXIT_NO_EQUILIBRIUM,
+                    message: eq.stability.describe(),
+                });
             }
             Ok(())
         }

@@ -68,7 +68,11 @@ pub fn solve_table(model: &Model, eq: &Equilibrium, k: Option<&NodeStiffness>) -
         eq.load_steps,
         eq.residual
     );
-    let _ = writeln!(s, "{:<14} {:<7} {:>14} {:>12} {:>12} {:>10}  state", "member", "kind", "force [N]", "length [m]", "L0 [m]", "strain");
+    let _ = writeln!(
+        s,
+        "{:<14} {:<7} {:>14} {:>12} {:>12} {:>10}  state",
+        "member", "kind", "force [N]", "length [m]", "L0 [m]", "strain"
+    );
     for m in &eq.members {
         let state = if m.slack {
             "SLACK"
@@ -77,9 +81,22 @@ pub fn solve_table(model: &Model, eq: &Equilibrium, k: Option<&NodeStiffness>) -
         } else {
             "tension"
         };
-        let _ = writeln!(s, "{:<14} {:<7} {:>14.2} {:>12.5} {:>12.5} {:>10.3e}  {state}", m.id, m.kind.name(), m.force, m.length, m.unstressed_length, m.strain);
+        let _ = writeln!(
+            s,
+            "{:<14} {:<7} {:>14.2} {:>12.5} {:>12.5} {:>10.3e}  {state}",
+            m.id,
+            m.kind.name(),
+            m.force,
+            m.length,
+            m.unstressed_length,
+            m.strain
+        );
     }
-    let _ = writeln!(s, "\n{:<14} {:>30} {:>36}", "node", "displacement [mm] (x, y, z)", "reaction [N] (x, y, z)");
+    let _ = writeln!(
+        s,
+        "\n{:<14} {:>30} {:>36}",
+        "node", "displacement [mm] (x, y, z)", "reaction [N] (x, y, z)"
+    );
     for n in &eq.nodes {
         let d = n.displacement * 1000.0;
         let r = match &n.reaction {
@@ -98,7 +115,11 @@ pub fn solve_table(model: &Model, eq: &Equilibrium, k: Option<&NodeStiffness>) -
             }
         }
         for p in &k.principal {
-            let _ = writeln!(s, "  principal {:>14.2} N/m along ({:.3}, {:.3}, {:.3})", p.value, p.direction.x, p.direction.y, p.direction.z);
+            let _ = writeln!(
+                s,
+                "  principal {:>14.2} N/m along ({:.3}, {:.3}, {:.3})",
+                p.value, p.direction.x, p.direction.y, p.direction.z
+            );
         }
     }
     s

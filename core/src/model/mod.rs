@@ -9,8 +9,7 @@ mod project;
 mod validated;
 
 pub use project::{
-    CaseDoc, LoadDoc, MemberDoc, MemberDocKind, NodeDoc, Project, ProjectError, Rest, UnitSystem,
-    FILE_EXTENSION, FORMAT_VERSION,
+    CaseDoc, FILE_EXTENSION, FORMAT_VERSION, LoadDoc, MemberDoc, MemberDocKind, NodeDoc, Project, ProjectError, Rest, UnitSystem,
 };
 pub use validated::{LoadCase, Member, Model, Node, Problem, Support};
 

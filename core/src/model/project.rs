@@ -147,7 +147,12 @@ pub enum ProjectError {
     Io { path: String, message: String },
     /// The text is not a well-formed project document.
     #[error("line {line}, column {column}: {message}; {hint}")]
-    Syntax { line: usize, column: usize, message: String, hint: String },
+    Syntax {
+        line: usize,
+        column: usize,
+        message: String,
+        hint: String,
+    },
     /// Written by a newer Rigwright.
     #[error("file format version {found} is newer than this Rigwright reads (up to {supported}); open it with a newer Rigwright")]
     TooNew { found: u32, supported: u32 },
@@ -197,7 +202,10 @@ impl Project {
         if let Ok(VersionOnly { version: Some(v) }) = ron::from_str::<VersionOnly>(text)
             && v > FORMAT_VERSION
         {
-            return Err(ProjectError::TooNew { found: v, supported: FORMAT_VERSION });
+            return Err(ProjectError::TooNew {
+                found: v,
+                supported: FORMAT_VERSION,
+            });
         }
         let project: Project = ron::from_str(text).map_err(|e| ProjectError::Syntax {
             line: e.span.start.line,
@@ -227,7 +235,10 @@ impl Project {
 
     /// Reads and parses a file.
     pub fn load(path: &Path) -> Result<Self, ProjectError> {
-        let bytes = std::fs::read(path).map_err(|e| ProjectError::Io { path: path.display().to_string(), message: e.to_string() })?;
+        let bytes = std::fs::read(path).map_err(|e| ProjectError::Io {
+            path: path.display().to_string(),
+            message: e.to_string(),
+        })?;
         let text = String::from_utf8(bytes).map_err(|e| ProjectError::Syntax {
             line: 1,
             column: 1,

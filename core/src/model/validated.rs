@@ -20,7 +20,11 @@ pub struct Problem {
 
 impl Problem {
     pub fn new(item: impl Into<String>, problem: impl Into<String>, hint: impl Into<String>) -> Self {
-        Problem { item: item.into(), problem: problem.into(), hint: hint.into() }
+        Problem {
+            item: item.into(),
+            problem: problem.into(),
+            hint: hint.into(),
+        }
     }
 }
 
@@ -152,30 +156,55 @@ impl Model {
         let mut problems = Vec::new();
         let mut index: HashMap<&str, usize> = HashMap::new();
         if !finite3(p.gravity) {
-            problems.push(Problem::new("gravity", "is not a finite vector", "write three numbers, e.g. (0.0, -9.81, 0.0)"));
+            problems.push(Problem::new(
+                "gravity",
+                "is not a finite vector",
+                "write three numbers, e.g. (0.0, -9.81, 0.0)",
+            ));
         }
         let mut nodes = Vec::with_capacity(p.nodes.len());
         for (i, n) in p.nodes.iter().enumerate() {
             let item = format!("node `{}`", n.id);
             if n.id.trim().is_empty() {
-                problems.push(Problem::new(format!("node #{}", i + 1), "has an empty id", "give every node a short unique name"));
+                problems.push(Problem::new(
+                    format!("node #{}", i + 1),
+                    "has an empty id",
+                    "give every node a short unique name",
+                ));
             } else if index.insert(n.id.as_str(), i).is_some() {
                 problems.push(Problem::new(&item, "id is used by more than one node", "rename one of them"));
             }
             if !finite3(n.at) {
-                problems.push(Problem::new(&item, "position is not finite (NaN or infinity)", "give three finite coordinates in metres"));
+                problems.push(Problem::new(
+                    &item,
+                    "position is not finite (NaN or infinity)",
+                    "give three finite coordinates in metres",
+                ));
             }
             if !(n.mass.is_finite() && n.mass >= 0.0) {
-                problems.push(Problem::new(&item, format!("mass {} kg is not allowed", n.mass), "use a mass of 0 kg or more"));
+                problems.push(Problem::new(
+                    &item,
+                    format!("mass {} kg is not allowed", n.mass),
+                    "use a mass of 0 kg or more",
+                ));
             }
             if p.planar && n.at.2 != 0.0 {
-                problems.push(Problem::new(&item, format!("z = {} m in a planar project", n.at.2), "set z to 0, or clear `planar` for a 3D rig"));
+                problems.push(Problem::new(
+                    &item,
+                    format!("z = {} m in a planar project", n.at.2),
+                    "set z to 0, or clear `planar` for a 3D rig",
+                ));
             }
             let mut fixed = n.fixed;
             if p.planar {
                 fixed[2] = true;
             }
-            nodes.push(Node { id: n.id.clone(), position: v3(n.at), mass: n.mass.max(0.0), support: Support { fixed } });
+            nodes.push(Node {
+                id: n.id.clone(),
+                position: v3(n.at),
+                mass: n.mass.max(0.0),
+                support: Support { fixed },
+            });
         }
 
         let mut member_ids: HashMap<&str, usize> = HashMap::new();
@@ -184,7 +213,11 @@ impl Model {
         for (i, m) in p.members.iter().enumerate() {
             let item = format!("member `{}`", m.id);
             if m.id.trim().is_empty() {
-                problems.push(Problem::new(format!("member #{}", i + 1), "has an empty id", "give every member a short unique name"));
+                problems.push(Problem::new(
+                    format!("member #{}", i + 1),
+                    "has an empty id",
+                    "give every member a short unique name",
+                ));
             } else if member_ids.insert(m.id.as_str(), i).is_some() {
                 problems.push(Problem::new(&item, "id is used by more than one member", "rename one of them"));
             }
@@ -192,11 +225,19 @@ impl Model {
             let b = index.get(m.ends.1.as_str()).copied();
             for (end, found) in [(&m.ends.0, a), (&m.ends.1, b)] {
                 if found.is_none() {
-                    problems.push(Problem::new(&item, format!("end node `{end}` does not exist"), "check the spelling or add that node"));
+                    problems.push(Problem::new(
+                        &item,
+                        format!("end node `{end}` does not exist"),
+                        "check the spelling or add that node",
+                    ));
                 }
             }
             if !(m.mass_per_length.is_finite() && m.mass_per_length >= 0.0) {
-                problems.push(Problem::new(&item, format!("mass per length {} kg/m is not allowed", m.mass_per_length), "use 0 kg/m or more"));
+                problems.push(Problem::new(
+                    &item,
+                    format!("mass per length {} kg/m is not allowed", m.mass_per_length),
+                    "use 0 kg/m or more",
+                ));
             }
             let (Some(a), Some(b)) = (a, b) else { continue };
             if a == b {
@@ -210,7 +251,11 @@ impl Model {
                 continue;
             }
             if drawn < 1e-9 {
-                problems.push(Problem::new(&item, format!("zero length: nodes `{}` and `{}` coincide", nodes[a].id, nodes[b].id), "move one node, or merge the two"));
+                problems.push(Problem::new(
+                    &item,
+                    format!("zero length: nodes `{}` and `{}` coincide", nodes[a].id, nodes[b].id),
+                    "move one node, or merge the two",
+                ));
                 continue;
             }
             match resolve_kind(&m.kind, drawn) {
@@ -218,7 +263,11 @@ impl Model {
                     let w = m.mass_per_length * kind.rest_length() * 0.5;
                     nodes[a].mass += w;
                     nodes[b].mass += w;
-                    members.push(Member { id: m.id.clone(), ends: [a, b], kind });
+                    members.push(Member {
+                        id: m.id.clone(),
+                        ends: [a, b],
+                        kind,
+                    });
                 }
                 Err((problem, hint)) => problems.push(Problem::new(&item, problem, hint)),
             }
@@ -233,12 +282,20 @@ impl Model {
             }
         }
         if !nodes.is_empty() && !nodes.iter().any(|n| n.support.is_supported()) {
-            problems.push(Problem::new("rig", "has no support, so it can float away", "make at least one node an anchor"));
+            problems.push(Problem::new(
+                "rig",
+                "has no support, so it can float away",
+                "make at least one node an anchor",
+            ));
         }
 
         let mut cases = Vec::new();
         if p.cases.is_empty() {
-            cases.push(LoadCase { name: "gravity".into(), gravity: 1.0, loads: Vec::new() });
+            cases.push(LoadCase {
+                name: "gravity".into(),
+                gravity: 1.0,
+                loads: Vec::new(),
+            });
         }
         let mut case_names: HashMap<&str, ()> = HashMap::new();
         for c in &p.cases {
@@ -247,23 +304,44 @@ impl Model {
                 problems.push(Problem::new(&item, "name is used by more than one load case", "rename one of them"));
             }
             if !c.gravity.is_finite() {
-                problems.push(Problem::new(&item, "gravity multiplier is not finite", "use 1 for self-weight, 0 for none"));
+                problems.push(Problem::new(
+                    &item,
+                    "gravity multiplier is not finite",
+                    "use 1 for self-weight, 0 for none",
+                ));
             }
             let mut loads = Vec::new();
             for l in &c.loads {
                 match index.get(l.node.as_str()) {
-                    None => problems.push(Problem::new(&item, format!("load on node `{}`, which does not exist", l.node), "check the node id")),
-                    Some(&n) if !finite3(l.force) => {
-                        problems.push(Problem::new(&item, format!("load on node `{}` is not finite", nodes[n].id), "give three finite force components in newtons"))
-                    }
+                    None => problems.push(Problem::new(
+                        &item,
+                        format!("load on node `{}`, which does not exist", l.node),
+                        "check the node id",
+                    )),
+                    Some(&n) if !finite3(l.force) => problems.push(Problem::new(
+                        &item,
+                        format!("load on node `{}` is not finite", nodes[n].id),
+                        "give three finite force components in newtons",
+                    )),
                     Some(&n) => loads.push((n, v3(l.force))),
                 }
             }
-            cases.push(LoadCase { name: c.name.clone(), gravity: c.gravity, loads });
+            cases.push(LoadCase {
+                name: c.name.clone(),
+                gravity: c.gravity,
+                loads,
+            });
         }
 
         if problems.is_empty() {
-            Ok(Model { title: p.title.clone(), planar: p.planar, gravity: v3(p.gravity), nodes, members, cases })
+            Ok(Model {
+                title: p.title.clone(),
+                planar: p.planar,
+                gravity: v3(p.gravity),
+                nodes,
+                members,
+                cases,
+            })
         } else {
             Err(problems)
         }
@@ -273,7 +351,11 @@ impl Model {
 /// Resolves the stored member law to a [`MemberKind`] for drawn length `drawn` (m).
 fn resolve_kind(kind: &MemberDocKind, drawn: f64) -> Result<MemberKind, (String, String)> {
     let positive = |what: &str, v: f64, unit: &str| -> Result<f64, (String, String)> {
-        if v.is_finite() && v > 0.0 { Ok(v) } else { Err((format!("{what} {v} {unit} is not allowed"), format!("give a positive {what}"))) }
+        if v.is_finite() && v > 0.0 {
+            Ok(v)
+        } else {
+            Err((format!("{what} {v} {unit} is not allowed"), format!("give a positive {what}")))
+        }
     };
     match *kind {
         MemberDocKind::Cable { ea, rest } | MemberDocKind::Strut { ea, rest } => {
@@ -287,15 +369,25 @@ fn resolve_kind(kind: &MemberDocKind, drawn: f64) -> Result<MemberKind, (String,
                         return Err(("pretension is not finite".into(), "give a finite force in newtons".into()));
                     }
                     if is_cable && t < 0.0 {
-                        return Err((format!("pretension {t} N is compression, which a cable cannot carry"), "give a tension of 0 N or more, or use a strut".into()));
+                        return Err((
+                            format!("pretension {t} N is compression, which a cable cannot carry"),
+                            "give a tension of 0 N or more, or use a strut".into(),
+                        ));
                     }
                     if t <= -ea {
-                        return Err((format!("force {t} N would need a zero or negative unstressed length"), "reduce the compression below EA".into()));
+                        return Err((
+                            format!("force {t} N would need a zero or negative unstressed length"),
+                            "reduce the compression below EA".into(),
+                        ));
                     }
                     drawn / (1.0 + t / ea)
                 }
             };
-            Ok(if is_cable { MemberKind::Cable { ea, l0 } } else { MemberKind::Strut { ea, l0 } })
+            Ok(if is_cable {
+                MemberKind::Cable { ea, l0 }
+            } else {
+                MemberKind::Strut { ea, l0 }
+            })
         }
         MemberDocKind::Spring { rate, rest } => {
             let k = positive("rate", rate, "N/m")?;
@@ -303,7 +395,10 @@ fn resolve_kind(kind: &MemberDocKind, drawn: f64) -> Result<MemberKind, (String,
                 Rest::AsDrawn => drawn,
                 Rest::Length(l) => {
                     if !(l.is_finite() && l >= 0.0) {
-                        return Err((format!("free length {l} m is not allowed"), "give a free length of 0 m or more".into()));
+                        return Err((
+                            format!("free length {l} m is not allowed"),
+                            "give a free length of 0 m or more".into(),
+                        ));
                     }
                     l
                 }

@@ -16,7 +16,11 @@ pub enum Stability {
     Mechanism { node: String, direction: [f64; 3] },
     /// The tangent stiffness has a negative eigenvalue (N/m): the rig would buckle or snap,
     /// most strongly at `node` along `direction`.
-    Unstable { node: String, direction: [f64; 3], eigenvalue: f64 },
+    Unstable {
+        node: String,
+        direction: [f64; 3],
+        eigenvalue: f64,
+    },
 }
 
 impl Stability {
@@ -33,7 +37,11 @@ impl Stability {
                 "mechanism: node `{node}` can move along {} with no restoring force; add a member, a support or pretension there",
                 d(direction)
             ),
-            Stability::Unstable { node, direction, eigenvalue } => format!(
+            Stability::Unstable {
+                node,
+                direction,
+                eigenvalue,
+            } => format!(
                 "unstable equilibrium (lowest tangent stiffness {eigenvalue:.4e} N/m): node `{node}` would move along {}; brace it or reduce the compression",
                 d(direction)
             ),

@@ -38,7 +38,13 @@ pub struct SolveSettings {
 
 impl Default for SolveSettings {
     fn default() -> Self {
-        SolveSettings { tolerance: 1e-10, max_iterations_per_step: 60, max_iterations: 1000, min_load_step: 1e-4, runaway_factor: 1e3 }
+        SolveSettings {
+            tolerance: 1e-10,
+            max_iterations_per_step: 60,
+            max_iterations: 1000,
+            min_load_step: 1e-4,
+            runaway_factor: 1e3,
+        }
     }
 }
 
@@ -56,8 +62,14 @@ pub enum SolveError {
     #[error("limit point: the rig carries only {:.1} % of the load case before it snaps through or collapses; stiffen or brace it, or reduce the load", load_factor * 100.0)]
     LimitPoint { load_factor: f64 },
     /// Newton's method did not reach the tolerance.
-    #[error("not converged after {iterations} iterations (relative residual {residual:.3e}, load factor {load_factor:.4}); check for members near slack, very soft parts or a mechanism")]
-    NotConverged { iterations: usize, residual: f64, load_factor: f64 },
+    #[error(
+        "not converged after {iterations} iterations (relative residual {residual:.3e}, load factor {load_factor:.4}); check for members near slack, very soft parts or a mechanism"
+    )]
+    NotConverged {
+        iterations: usize,
+        residual: f64,
+        load_factor: f64,
+    },
     /// A held node or a node query names a node that cannot be used that way.
     #[error("node `{0}`: {1}")]
     BadNode(String, String),
@@ -79,6 +91,12 @@ enum NewtonFail {
 struct Converged {
     residual: f64,
     definiteness: Definiteness,
+}
+
+/// Work done along the load path.
+struct LoadPath {
+    iterations: usize,
+    steps: usize,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -116,7 +134,13 @@ impl<'m> Statics<'m> {
     fn build(model: &'m Model, held: Option<usize>) -> Self {
         let system = System::new(model, DofMap::new(model, held));
         let rate_scale = model.members.iter().map(|m| m.kind.rate()).fold(1e-300, f64::max);
-        Statics { model, system, held, rate_scale, settings: SolveSettings::default() }
+        Statics {
+            model,
+            system,
+            held,
+            rate_scale,
+            settings: SolveSettings::default(),
+        }
     }
 
     /// The model being solved.
@@ -137,7 +161,15 @@ impl<'m> Statics<'m> {
     /// Index of a load case by name, with a helpful error.
     pub fn case_index(&self, name: &str) -> Result<usize, SolveError> {
         self.model.case_index(name).ok_or_else(|| {
-            SolveError::UnknownCase(name.to_string(), self.model.cases.iter().map(|c| format!("`{}`", c.name)).collect::<Vec<_>>().join(", "))
+            SolveError::UnknownCase(
+                name.to_string(),
+                self.model
+                    .cases
+                    .iter()
+                    .map(|c| format!("`{}`", c.name))
+                    .collect::<Vec<_>>()
+                    .join(", "),
+            )
         })
     }
 
@@ -145,7 +177,10 @@ impl<'m> Statics<'m> {
     /// `warm` (node positions of a nearby equilibrium) when given.
     pub fn solve(&self, case: usize, warm: Option<&[Vec3]>) -> Result<Equilibrium, SolveError> {
         if let Some(h) = self.held {
-            return Err(SolveError::BadNode(self.model.nodes[h].id.clone(), "this solver holds the node; use solve_held".into()));
+            return Err(SolveError::BadNode(
+                self.model.nodes[h].id.clone(),
+                "this solver holds the node; use solve_held".into(),
+            ));
         }
         self.run(case, warm, None)
     }
@@ -154,10 +189,16 @@ impl<'m> Statics<'m> {
     /// needed to hold it there.
     pub fn solve_held(&self, case: usize, position: Vec3, warm: Option<&[Vec3]>) -> Result<Equilibrium, SolveError> {
         let Some(node) = self.held else {
-            return Err(SolveError::BadNode(String::new(), "no node is held; build the solver with Statics::holding".into()));
+            return Err(SolveError::BadNode(
+                String::new(),
+                "no node is held; build the solver with Statics::holding".into(),
+            ));
         };
         if !position.iter().all(|v| v.is_finite()) {
-            return Err(SolveError::BadNode(self.model.nodes[node].id.clone(), "hold position is not finite".into()));
+            return Err(SolveError::BadNode(
+                self.model.nodes[node].id.clone(),
+                "hold position is not finite".into(),
+            ));
         }
         self.run(case, warm, Some((node, position)))
     }
@@ -182,7 +223,7 @@ impl<'m> Statics<'m> {
             if let Ok(c) = self.newton(&mut pos, &load, 1.0, false, &mut iterations)
                 && c.definiteness != Definiteness::Indefinite
             {
-                return Ok(self.finish(case, pos, &load, c, iterations, 1, hold));
+                return Ok(self.finish(case, pos, &load, c, LoadPath { iterations, steps: 1 }, hold));
             }
         }
 
@@ -195,7 +236,10 @@ impl<'m> Statics<'m> {
             // drawn geometry without path-following checks.
             Err(_) => {
                 pos = drawn_again(model, hold);
-                Converged { residual: f64::INFINITY, definiteness: Definiteness::Semi }
+                Converged {
+                    residual: f64::INFINITY,
+                    definiteness: Definiteness::Semi,
+                }
             }
         };
         let mut lambda = 0.0;
@@ -203,7 +247,11 @@ impl<'m> Statics<'m> {
         let mut steps = 0;
         while lambda < 1.0 {
             if iterations >= self.settings.max_iterations {
-                return Err(SolveError::NotConverged { iterations, residual: state.residual, load_factor: lambda });
+                return Err(SolveError::NotConverged {
+                    iterations,
+                    residual: state.residual,
+                    load_factor: lambda,
+                });
             }
             let target = (lambda + step).min(1.0);
             let strict = state.definiteness == Definiteness::Positive;
@@ -221,21 +269,26 @@ impl<'m> Statics<'m> {
                     step *= 0.5;
                     if step < self.settings.min_load_step {
                         return Err(match other {
-                            Err(NewtonFail::Stalled { residual }) if !strict => {
-                                SolveError::NotConverged { iterations, residual, load_factor: lambda }
-                            }
+                            Err(NewtonFail::Stalled { residual }) if !strict => SolveError::NotConverged {
+                                iterations,
+                                residual,
+                                load_factor: lambda,
+                            },
                             _ => SolveError::LimitPoint { load_factor: lambda },
                         });
                     }
                 }
             }
         }
-        Ok(self.finish(case, pos, &load, state, iterations, steps, hold))
+        Ok(self.finish(case, pos, &load, state, LoadPath { iterations, steps }, hold))
     }
 
     fn mechanism(&self, node: usize, direction: Vec3) -> SolveError {
         let d = direction.normalize();
-        SolveError::Mechanism { node: self.model.nodes[node].id.clone(), direction: [d.x, d.y, d.z] }
+        SolveError::Mechanism {
+            node: self.model.nodes[node].id.clone(),
+            direction: [d.x, d.y, d.z],
+        }
     }
 
     /// Newton's method at fixed load factor, updating `pos` in place.
@@ -244,7 +297,9 @@ impl<'m> Statics<'m> {
         let sys = &self.system;
         let s = &self.settings;
         let limit = s.runaway_factor * model.extent();
-        let mut eval = sys.evaluate(model, pos, load, lambda).ok_or(NewtonFail::Stalled { residual: f64::INFINITY })?;
+        let mut eval = sys
+            .evaluate(model, pos, load, lambda)
+            .ok_or(NewtonFail::Stalled { residual: f64::INFINITY })?;
         let mut mu = 0.0;
         for it in 0..=s.max_iterations_per_step {
             let rnorm = norm(&eval.residual);
@@ -256,7 +311,10 @@ impl<'m> Statics<'m> {
             if rel <= s.tolerance || sys.size() == 0 {
                 let definiteness = definiteness(sys, &values, sys.max_diagonal(&values));
                 let _ = it;
-                return Ok(Converged { residual: rel, definiteness });
+                return Ok(Converged {
+                    residual: rel,
+                    definiteness,
+                });
             }
             if it == s.max_iterations_per_step || *total >= s.max_iterations {
                 return Err(NewtonFail::Stalled { residual: rel });
@@ -335,7 +393,8 @@ impl<'m> Statics<'m> {
         Err(NewtonFail::Stalled { residual: f64::INFINITY })
     }
 
-    fn finish(&self, case: usize, pos: Vec<Vec3>, load: &[Vec3], c: Converged, iterations: usize, steps: usize, hold: Option<(usize, Vec3)>) -> Equilibrium {
+    fn finish(&self, case: usize, pos: Vec<Vec3>, load: &[Vec3], c: Converged, path: LoadPath, hold: Option<(usize, Vec3)>) -> Equilibrium {
+        let LoadPath { iterations, steps } = path;
         let model = self.model;
         let (f, _, _) = System::internal(model, &pos).expect("converged state has positive lengths");
         let stability = match c.definiteness {
@@ -357,7 +416,12 @@ impl<'m> Statics<'m> {
                     }
                     r
                 });
-                NodeResult { id: n.id.clone(), position: pos[i], displacement: pos[i] - n.position, reaction }
+                NodeResult {
+                    id: n.id.clone(),
+                    position: pos[i],
+                    displacement: pos[i] - n.position,
+                    reaction,
+                }
             })
             .collect();
         let members = model
@@ -409,7 +473,11 @@ impl<'m> Statics<'m> {
         let (node, dir) = self.dominant_node(&vec);
         let dmax = sys.max_diagonal(&values).max(self.rate_scale);
         if d == Definiteness::Indefinite && eig < -1e-10 * dmax {
-            Stability::Unstable { node, direction: dir, eigenvalue: eig }
+            Stability::Unstable {
+                node,
+                direction: dir,
+                eigenvalue: eig,
+            }
         } else {
             Stability::Mechanism { node, direction: dir }
         }
@@ -440,18 +508,27 @@ impl<'m> Statics<'m> {
     /// into `Uᵀ K_E U + Uᵀ K_G U`: the strain-energy share of the elastic and geometric parts.
     pub fn node_stiffness(&self, eq: &Equilibrium, node: usize) -> Result<NodeStiffness, SolveError> {
         let model = self.model;
-        let id = model.nodes.get(node).map(|n| n.id.clone()).ok_or_else(|| SolveError::BadNode(format!("#{node}"), "no such node".into()))?;
+        let id = model
+            .nodes
+            .get(node)
+            .map(|n| n.id.clone())
+            .ok_or_else(|| SolveError::BadNode(format!("#{node}"), "no such node".into()))?;
         let sys = &self.system;
         let axes: Vec<usize> = (0..3).filter(|&a| sys.dofs.dof[node][a].is_some()).collect();
         if axes.is_empty() {
-            return Err(SolveError::BadNode(id, "is held in every direction, so it has no stiffness to condense".into()));
+            return Err(SolveError::BadNode(
+                id,
+                "is held in every direction, so it has no stiffness to condense".into(),
+            ));
         }
         if !eq.stability.is_stable() {
             return Err(SolveError::NotStable(eq.stability.describe()));
         }
         let pos = eq.positions();
         let kt = sys.assemble(model, &pos, Part::Total);
-        let factor = sys.factor(&kt, 0.0).ok_or_else(|| SolveError::NotStable("the tangent stiffness is not positive definite".into()))?;
+        let factor = sys
+            .factor(&kt, 0.0)
+            .ok_or_else(|| SolveError::NotStable("the tangent stiffness is not positive definite".into()))?;
         let n = sys.size();
         let m = axes.len();
         let cols: Vec<Vec<f64>> = axes
@@ -465,9 +542,14 @@ impl<'m> Statics<'m> {
             .collect();
         let flex = DMatrix::from_fn(m, m, |i, j| cols[j][sys.dofs.dof[node][axes[i]].expect("free axis")]);
         let flex = (&flex + flex.transpose()) * 0.5;
-        let total = flex.clone().try_inverse().ok_or_else(|| SolveError::NotStable("singular flexibility".into()))?;
+        let total = flex
+            .clone()
+            .try_inverse()
+            .ok_or_else(|| SolveError::NotStable("singular flexibility".into()))?;
         // U = K⁻¹ E F⁻¹: columns are the fields for unit node displacements.
-        let u: Vec<Vec<f64>> = (0..m).map(|j| (0..n).map(|r| (0..m).map(|k| cols[k][r] * total[(k, j)]).sum()).collect()).collect();
+        let u: Vec<Vec<f64>> = (0..m)
+            .map(|j| (0..n).map(|r| (0..m).map(|k| cols[k][r] * total[(k, j)]).sum()).collect())
+            .collect();
         let project = |part: Part| -> DMatrix<f64> {
             let v = sys.assemble(model, &pos, part);
             let ku: Vec<Vec<f64>> = u.iter().map(|col| sys.mul(&v, col)).collect();
@@ -488,12 +570,22 @@ impl<'m> Statics<'m> {
                 if dir[imax] < 0.0 {
                     dir = -dir;
                 }
-                Principal { value: eig.eigenvalues[k], direction: dir }
+                Principal {
+                    value: eig.eigenvalues[k],
+                    direction: dir,
+                }
             })
             .collect();
         principal.sort_by(|a, b| a.value.total_cmp(&b.value));
         let rows = |mat: &DMatrix<f64>| (0..m).map(|i| (0..m).map(|j| mat[(i, j)]).collect()).collect();
-        Ok(NodeStiffness { node: id, axes, total: rows(&total), elastic: rows(&elastic), geometric: rows(&geometric), principal })
+        Ok(NodeStiffness {
+            node: id,
+            axes,
+            total: rows(&total),
+            elastic: rows(&elastic),
+            geometric: rows(&geometric),
+            principal,
+        })
     }
 }
 

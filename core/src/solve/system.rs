@@ -163,7 +163,14 @@ impl System {
         } else {
             SymbolicLlt::try_new(pattern_view(n, &col_ptr, &row_idx), Side::Upper).ok()
         };
-        System { dofs, col_ptr, row_idx, scatter, diag, symbolic }
+        System {
+            dofs,
+            col_ptr,
+            row_idx,
+            scatter,
+            diag,
+            symbolic,
+        }
     }
 
     /// Number of free DOFs.
@@ -257,7 +264,7 @@ impl System {
             let [a, b] = m.ends;
             let d = pos[b] - pos[a];
             let l = d.norm();
-            if !(l > 0.0) {
+            if l.partial_cmp(&0.0) != Some(std::cmp::Ordering::Greater) {
                 continue;
             }
             let (ke, kg) = m.kind.tangent_blocks(&(d / l), l);
@@ -297,16 +304,17 @@ impl System {
         let n = self.size();
         let sym = pattern_view(n, &self.col_ptr, &self.row_idx);
         let mat = SparseColMatRef::new(sym, vals);
-        Llt::try_new_with_symbolic(symbolic.clone(), mat, Side::Upper).ok().map(|llt| Factor { llt, shift })
+        Llt::try_new_with_symbolic(symbolic.clone(), mat, Side::Upper)
+            .ok()
+            .map(|llt| Factor { llt, shift })
     }
 
     /// `y = K x` for the symmetric matrix stored as its upper triangle.
     pub fn mul(&self, values: &[f64], x: &[f64]) -> Vec<f64> {
         let mut y = vec![0.0; x.len()];
         for j in 0..self.size() {
-            for p in self.col_ptr[j]..self.col_ptr[j + 1] {
-                let i = self.row_idx[p];
-                let v = values[p];
+            let range = self.col_ptr[j]..self.col_ptr[j + 1];
+            for (&i, &v) in self.row_idx[range.clone()].iter().zip(&values[range]) {
                 y[i] += v * x[j];
                 if i != j {
                     y[j] += v * x[i];
@@ -321,10 +329,10 @@ impl System {
         let n = self.size();
         let mut k = nalgebra::DMatrix::zeros(n, n);
         for j in 0..n {
-            for p in self.col_ptr[j]..self.col_ptr[j + 1] {
-                let i = self.row_idx[p];
-                k[(i, j)] = values[p];
-                k[(j, i)] = values[p];
+            let range = self.col_ptr[j]..self.col_ptr[j + 1];
+            for (&i, &v) in self.row_idx[range.clone()].iter().zip(&values[range]) {
+                k[(i, j)] = v;
+                k[(j, i)] = v;
             }
         }
         k
