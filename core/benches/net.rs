@@ -24,9 +24,13 @@ fn benches(c: &mut Criterion) {
         let pos: Vec<_> = model.nodes.iter().map(|nd| nd.position).collect();
         let load = model.case_forces(0);
         let dofs = sys.size();
-        g.bench_with_input(BenchmarkId::new("assembly", dofs), &n, |b, _| b.iter(|| sys.assemble(&model, &pos, Part::Total)));
+        g.bench_with_input(BenchmarkId::new("assembly", dofs), &n, |b, _| {
+            b.iter(|| sys.assemble(&model, &pos, Part::Total))
+        });
         let values = sys.assemble(&model, &pos, Part::Total);
-        g.bench_with_input(BenchmarkId::new("factorisation", dofs), &n, |b, _| b.iter(|| sys.factor(&values, 0.0).expect("positive definite")));
+        g.bench_with_input(BenchmarkId::new("factorisation", dofs), &n, |b, _| {
+            b.iter(|| sys.factor(&values, 0.0).expect("positive definite"))
+        });
         g.bench_with_input(BenchmarkId::new("newton_iteration", dofs), &n, |b, _| {
             b.iter(|| {
                 let e = sys.evaluate(&model, &pos, &load, 1.0).expect("finite");

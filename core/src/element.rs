@@ -113,6 +113,24 @@ impl MemberKind {
         }
     }
 
+    /// Secant slope of the strain energy between lengths `la` and `lb` (m):
+    /// `(U(lb) − U(la)) / (lb − la)` (N), evaluated without cancellation; equals the force
+    /// `N` when `la = lb`. For `U = ½k(L − L0)²` it is `½k(la + lb − 2L0)`.
+    pub fn energy_slope(&self, la: f64, lb: f64) -> f64 {
+        let l0 = self.rest_length();
+        let k = self.rate();
+        let cable = matches!(self, MemberKind::Cable { .. });
+        let (lo, hi) = if la <= lb { (la, lb) } else { (lb, la) };
+        if !cable || lo >= l0 {
+            0.5 * k * (la + lb - 2.0 * l0)
+        } else if hi <= l0 {
+            0.0
+        } else {
+            // Slack at `lo`, taut at `hi`.
+            0.5 * k * (hi - l0).powi(2) / (hi - lo)
+        }
+    }
+
     /// Elastic and geometric 3×3 tangent blocks `(k_a ê êᵀ, (N/L)(I − ê êᵀ))` for unit
     /// vector `e` and current length `l`.
     pub fn tangent_blocks(&self, e: &nalgebra::Vector3<f64>, l: f64) -> (Matrix3<f64>, Matrix3<f64>) {

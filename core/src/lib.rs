@@ -12,6 +12,7 @@
 //!
 //! Units are SI throughout: metres, newtons, kilograms, seconds.
 
+pub mod dynamics;
 pub mod element;
 pub mod gallery;
 pub mod model;

@@ -54,6 +54,14 @@ impl DofMap {
         DofMap { dof, count }
     }
 
+    /// Every free DOF as (node, axis, dof number), in node order.
+    pub fn free(&self) -> impl Iterator<Item = (usize, usize, usize)> + '_ {
+        self.dof
+            .iter()
+            .enumerate()
+            .flat_map(|(n, d)| d.iter().enumerate().filter_map(move |(a, s)| s.map(|k| (n, a, k))))
+    }
+
     /// (node, axis) of free DOF `k`.
     pub fn locate(&self, k: usize) -> (usize, usize) {
         for (n, d) in self.dof.iter().enumerate() {
@@ -341,4 +349,13 @@ impl System {
 
 fn pattern_view<'a>(n: usize, col_ptr: &'a [usize], row_idx: &'a [usize]) -> SymbolicSparseColMatRef<'a, usize> {
     SymbolicSparseColMatRef::new_checked(n, n, col_ptr, None, row_idx)
+}
+
+impl System {
+    /// Adds `diag[k]` to diagonal entry `k` of stored values.
+    pub fn add_to_diagonal(&self, values: &mut [f64], diag: &[f64]) {
+        for (&s, d) in self.diag.iter().zip(diag) {
+            values[s] += d;
+        }
+    }
 }

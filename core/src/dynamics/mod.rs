@@ -1,0 +1,13 @@
+//! Vibration about the preloaded equilibrium: natural frequencies and mode shapes
+//! ([`modes`]), nonlinear free vibration — Pluck — ([`Motion`]), and spectra of signals
+//! ([`spectrum`]).
+//!
+//! Masses are lumped at the nodes, so the mass matrix is diagonal; nodes with zero mass are
+//! allowed and follow the massive ones quasi-statically.
+
+mod modes;
+mod motion;
+pub mod spectrum;
+
+pub use modes::{Mode, ModeError, Modes, modes};
+pub use motion::{Energy, Motion, MotionError, MotionSettings, Scheme, rayleigh_coefficients};

@@ -1,0 +1,266 @@
+//! Natural frequencies and mode shapes about an equilibrium: `K_T φ = ω² M φ`.
+//!
+//! With `M = diag(m)` possibly singular (massless nodes), write `y = M^½ φ`. Then
+//! `B y = ω⁻² y` with `B = M^½ K_T⁻¹ M^½`, symmetric and positive semi-definite when `K_T` is
+//! positive definite; its largest eigenvalues give the lowest frequencies, and
+//! `φ = ω² K_T⁻¹ M^½ y` recovers the full shape, massless degrees of freedom included, already
+//! mass-normalised (`φᵀ M φ = yᵀ y = 1`). Applying `B` costs one solve with the sparse
+//! Cholesky factor of `K_T`.
+//!
+//! Small rigs form `B` densely and use a symmetric eigensolver (all modes). Large rigs use a
+//! block Lanczos iteration with full reorthogonalisation (Golub & Van Loan, *Matrix
+//! Computations*, 4th ed., §10.3.6): the block of 4 vectors keeps repeated frequencies of
+//! symmetric rigs, which a single-vector iteration can miss, and every Ritz pair is returned
+//! only once its residual passes a convergence test.
+
+use nalgebra::{DMatrix, DVector, SymmetricEigen};
+use serde::Serialize;
+
+use crate::model::Vec3;
+use crate::solve::system::{Factor, Part};
+use crate::solve::{Equilibrium, Statics};
+
+/// Largest number of massive DOFs solved with the dense eigensolver.
+const DENSE_LIMIT: usize = 600;
+/// Block size of the Lanczos iteration.
+const BLOCK: usize = 4;
+
+/// One natural mode.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Mode {
+    /// Natural frequency (Hz).
+    pub frequency_hz: f64,
+    /// Period (s).
+    pub period_s: f64,
+    /// Circular frequency ω (rad/s).
+    pub omega: f64,
+    /// Mass-normalised shape, one vector per node (zero at held directions).
+    pub shape: Vec<Vec3>,
+    /// Effective modal mass along x, y, z (kg): `(φᵀ M r)²` with `r` the unit rigid
+    /// translation.
+    pub effective_mass: [f64; 3],
+}
+
+/// The lowest modes of a rig, ordered by frequency.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Modes {
+    pub modes: Vec<Mode>,
+    /// Total mass free to move along x, y, z (kg), for comparing effective masses.
+    pub mobile_mass: [f64; 3],
+}
+
+/// Why no modes could be computed.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+#[non_exhaustive]
+pub enum ModeError {
+    /// The equilibrium is not stable, so it has no natural frequencies.
+    #[error("no natural frequencies about a state that is not stable: {0}")]
+    NotStable(String),
+    /// No node has mass in a free direction.
+    #[error("no mass can move: give the free nodes a mass (kg)")]
+    NoMass,
+    /// The iteration did not converge.
+    #[error("the eigenvalue iteration did not converge for {0} mode(s); ask for fewer modes")]
+    NotConverged(usize),
+}
+
+/// The lowest `count` modes about equilibrium `eq` (found with `statics`, without a held
+/// node).
+pub fn modes(statics: &Statics, eq: &Equilibrium, count: usize) -> Result<Modes, ModeError> {
+    if !eq.stability.is_stable() {
+        return Err(ModeError::NotStable(eq.stability.describe()));
+    }
+    let model = statics.model();
+    let sys = statics.system();
+    let pos = eq.positions();
+    let k = sys.assemble(model, &pos, Part::Total);
+    let factor = sys
+        .factor(&k, 0.0)
+        .ok_or_else(|| ModeError::NotStable("tangent stiffness is not positive definite".into()))?;
+    let n = sys.size();
+    // Diagonal mass per free DOF.
+    let mut mass = vec![0.0; n];
+    let mut mobile_mass = [0.0; 3];
+    for (node, a, i) in sys.dofs.free() {
+        mass[i] = model.nodes[node].mass;
+        mobile_mass[a] += model.nodes[node].mass;
+    }
+    let massive: Vec<usize> = (0..n).filter(|&i| mass[i] > 0.0).collect();
+    if massive.is_empty() {
+        return Err(ModeError::NoMass);
+    }
+    let count = count.min(massive.len());
+    let sqrt_m: Vec<f64> = mass.iter().map(|m| m.sqrt()).collect();
+    // B y = M^½ K⁻¹ M^½ y, with y living on the massive DOFs only.
+    let apply = |y: &[f64]| -> Vec<f64> {
+        let mut full = vec![0.0; n];
+        for (j, &i) in massive.iter().enumerate() {
+            full[i] = sqrt_m[i] * y[j];
+        }
+        factor.solve_in_place(&mut full);
+        massive.iter().map(|&i| sqrt_m[i] * full[i]).collect()
+    };
+    let pairs = if massive.len() <= DENSE_LIMIT {
+        dense_pairs(&apply, massive.len(), count)
+    } else {
+        lanczos_pairs(&apply, massive.len(), count)?
+    };
+    let out = pairs
+        .into_iter()
+        .filter(|(mu, _)| *mu > 0.0)
+        .map(|(mu, y)| {
+            let omega2 = 1.0 / mu;
+            let omega = omega2.sqrt();
+            let phi = shape_from(&factor, &massive, &sqrt_m, n, &y, omega2);
+            let mut shape = vec![Vec3::zeros(); model.nodes.len()];
+            let mut participation = [0.0; 3];
+            for (node, a, i) in sys.dofs.free() {
+                shape[node][a] = phi[i];
+                participation[a] += mass[i] * phi[i];
+            }
+            // A fixed sign: the largest component positive.
+            let (imax, _) = phi
+                .iter()
+                .enumerate()
+                .fold((0, 0.0f64), |b, (i, v)| if v.abs() > b.1 { (i, v.abs()) } else { b });
+            if phi[imax] < 0.0 {
+                shape.iter_mut().for_each(|s| *s = -*s);
+            }
+            let frequency_hz = omega / std::f64::consts::TAU;
+            Mode {
+                frequency_hz,
+                period_s: 1.0 / frequency_hz,
+                omega,
+                shape,
+                effective_mass: participation.map(|p| p * p),
+            }
+        })
+        .collect();
+    Ok(Modes { modes: out, mobile_mass })
+}
+
+/// `φ = ω² K⁻¹ M^½ y` on all free DOFs.
+fn shape_from(factor: &Factor, massive: &[usize], sqrt_m: &[f64], n: usize, y: &[f64], omega2: f64) -> Vec<f64> {
+    let mut full = vec![0.0; n];
+    for (j, &i) in massive.iter().enumerate() {
+        full[i] = sqrt_m[i] * y[j];
+    }
+    factor.solve_in_place(&mut full);
+    full.iter_mut().for_each(|v| *v *= omega2);
+    full
+}
+
+/// All eigenpairs of the dense `B`, largest first, keeping `count`.
+fn dense_pairs(apply: &dyn Fn(&[f64]) -> Vec<f64>, m: usize, count: usize) -> Vec<(f64, Vec<f64>)> {
+    let mut b = DMatrix::zeros(m, m);
+    let mut e = vec![0.0; m];
+    for j in 0..m {
+        e[j] = 1.0;
+        let col = apply(&e);
+        e[j] = 0.0;
+        b.set_column(j, &DVector::from_vec(col));
+    }
+    let b = (&b + b.transpose()) * 0.5;
+    let eig = SymmetricEigen::new(b);
+    let mut idx: Vec<usize> = (0..m).collect();
+    idx.sort_by(|&i, &j| eig.eigenvalues[j].total_cmp(&eig.eigenvalues[i]));
+    idx.into_iter()
+        .take(count)
+        .map(|i| (eig.eigenvalues[i], eig.eigenvectors.column(i).iter().copied().collect()))
+        .collect()
+}
+
+/// Largest `count` eigenpairs of `B` by block Lanczos with full reorthogonalisation.
+fn lanczos_pairs(apply: &dyn Fn(&[f64]) -> Vec<f64>, m: usize, count: usize) -> Result<Vec<(f64, Vec<f64>)>, ModeError> {
+    let max_blocks = (m / BLOCK).max(1);
+    let mut blocks = ((2 * count + 20) / BLOCK).max(6).min(max_blocks);
+    loop {
+        let (pairs, unconverged) = lanczos_run(apply, m, count, blocks);
+        if unconverged == 0 {
+            return Ok(pairs);
+        }
+        if blocks >= max_blocks {
+            return Err(ModeError::NotConverged(unconverged));
+        }
+        blocks = (blocks * 2).min(max_blocks);
+    }
+}
+
+fn lanczos_run(apply: &dyn Fn(&[f64]) -> Vec<f64>, m: usize, count: usize, blocks: usize) -> (Vec<(f64, Vec<f64>)>, usize) {
+    let b = BLOCK.min(m);
+    // Deterministic, well-spread start block.
+    let start = DMatrix::from_fn(m, b, |i, j| (((i + 1) * (j + 3) * 2654435761usize) % 1000) as f64 / 1000.0 - 0.5);
+    let mut q = qr_block(start).0;
+    let mut basis: Vec<DMatrix<f64>> = vec![q.clone()];
+    let dim = blocks * b;
+    let mut t = DMatrix::zeros(dim, dim);
+    let mut beta_prev: Option<DMatrix<f64>> = None;
+    let mut last_beta = DMatrix::zeros(b, b);
+    let mut used = 0;
+    for k in 0..blocks {
+        let mut w = DMatrix::zeros(m, b);
+        for j in 0..b {
+            let col: Vec<f64> = q.column(j).iter().copied().collect();
+            w.set_column(j, &DVector::from_vec(apply(&col)));
+        }
+        if let (Some(bp), Some(qp)) = (&beta_prev, k.checked_sub(1).map(|p| &basis[p])) {
+            w -= qp * bp.transpose();
+        }
+        let a = q.transpose() * &w;
+        w -= &q * &a;
+        // Full reorthogonalisation, twice.
+        for _ in 0..2 {
+            for qb in &basis {
+                let c = qb.transpose() * &w;
+                w -= qb * c;
+            }
+        }
+        let a = (&a + a.transpose()) * 0.5;
+        t.view_mut((k * b, k * b), (b, b)).copy_from(&a);
+        used = k + 1;
+        let (qn, beta) = qr_block(w);
+        last_beta = beta.clone();
+        if k + 1 < blocks {
+            t.view_mut(((k + 1) * b, k * b), (b, b)).copy_from(&beta);
+            t.view_mut((k * b, (k + 1) * b), (b, b)).copy_from(&beta.transpose());
+            beta_prev = Some(beta);
+            q = qn;
+            basis.push(q.clone());
+        }
+    }
+    let dim = used * b;
+    let t = t.view((0, 0), (dim, dim)).into_owned();
+    let eig = SymmetricEigen::new(t);
+    let mut idx: Vec<usize> = (0..dim).collect();
+    idx.sort_by(|&i, &j| eig.eigenvalues[j].total_cmp(&eig.eigenvalues[i]));
+    let top = eig.eigenvalues[idx[0]].abs().max(1e-300);
+    let mut unconverged = 0;
+    let mut pairs = Vec::new();
+    for &i in idx.iter().take(count) {
+        let s = eig.eigenvectors.column(i);
+        // Residual ‖B x − θ x‖ = ‖β_last · s_last‖.
+        let tail = s.rows(dim - b, b).into_owned();
+        let res = (&last_beta * tail).norm();
+        if res > 1e-8 * top {
+            unconverged += 1;
+        }
+        let mut y = vec![0.0; m];
+        for (kb, qb) in basis.iter().enumerate().take(used) {
+            let coeff = s.rows(kb * b, b);
+            let v = qb * coeff;
+            for r in 0..m {
+                y[r] += v[r];
+            }
+        }
+        let nrm = y.iter().map(|v| v * v).sum::<f64>().sqrt();
+        y.iter_mut().for_each(|v| *v /= nrm);
+        pairs.push((eig.eigenvalues[i], y));
+    }
+    (pairs, unconverged)
+}
+
+/// Thin Householder QR of an m×b block: (Q with orthonormal columns, R upper triangular).
+fn qr_block(w: DMatrix<f64>) -> (DMatrix<f64>, DMatrix<f64>) {
+    let qr = w.qr();
+    (qr.q(), qr.r())
+}
