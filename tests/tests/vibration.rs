@@ -118,7 +118,7 @@ fn repeated_frequency_pairs_of_a_3d_string_are_all_found_by_the_sparse_eigensolv
 /// Method*, ch. 9, from memory; Ω = 0.5 → 1.020497, calc).
 #[test]
 fn linear_oscillator_conserves_energy_and_shows_the_newmark_period_elongation() {
-    let (k, mass) = (4000.0, 10.0);
+    let (k, mass): (f64, f64) = (4000.0, 10.0);
     let omega = (k / mass).sqrt();
     let mut p = Project::new("oscillator");
     p.gravity = (0.0, 0.0, 0.0);
