@@ -193,13 +193,22 @@ impl Project {
 
     /// Parses a project document. Syntax errors carry line and column.
     pub fn from_ron(text: &str) -> Result<Self, ProjectError> {
+        if text.trim().is_empty() {
+            return Err(ProjectError::Syntax {
+                line: 1,
+                column: 1,
+                message: "the file is empty".into(),
+                hint: "it may have been cut short while saving; open the backup or a sample project".into(),
+            });
+        }
         // Check the version first, so a newer file gets the right message even when its
         // fields are unknown to this version.
         #[derive(Deserialize)]
         struct VersionOnly {
-            version: Option<u32>,
+            #[serde(default)]
+            version: u32,
         }
-        if let Ok(VersionOnly { version: Some(v) }) = ron::from_str::<VersionOnly>(text)
+        if let Ok(VersionOnly { version: v }) = ron::from_str::<VersionOnly>(text)
             && v > FORMAT_VERSION
         {
             return Err(ProjectError::TooNew {
@@ -207,11 +216,21 @@ impl Project {
                 supported: FORMAT_VERSION,
             });
         }
-        let project: Project = ron::from_str(text).map_err(|e| ProjectError::Syntax {
-            line: e.span.start.line,
-            column: e.span.start.col,
-            message: e.code.to_string(),
-            hint: syntax_hint(&e.code),
+        let project: Project = ron::from_str(text).map_err(|e| {
+            // An error on the last line of a file that stops inside the document means the
+            // file was cut short.
+            let last_line = text.trim_end().lines().count();
+            let cut_short = e.span.start.line >= last_line && !text.trim_end().ends_with(')');
+            ProjectError::Syntax {
+                line: e.span.start.line,
+                column: e.span.start.col,
+                message: e.code.to_string(),
+                hint: if cut_short {
+                    syntax_hint(&ron::Error::Eof)
+                } else {
+                    syntax_hint(&e.code)
+                },
+            }
         })?;
         if project.version == 0 {
             return Err(ProjectError::Invalid {
@@ -273,11 +292,28 @@ impl Project {
 fn syntax_hint(code: &ron::Error) -> String {
     use ron::Error as E;
     match code {
-        E::Eof => "the file ends early; it may be truncated".into(),
+        E::Eof => "the file ends early; it may be truncated (open the backup, or restore it from version control)".into(),
         E::MissingStructField { field, .. } => format!("add the field `{field}`"),
         E::NoSuchStructField { expected, .. } => format!("check the spelling; fields allowed here: {}", expected.join(", ")),
         E::NoSuchEnumVariant { expected, .. } => format!("use one of: {}", expected.join(", ")),
         E::DuplicateStructField { field, .. } => format!("remove the second `{field}`"),
         _ => "compare with a sample project in sample-projects/".into(),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_newer_file_is_refused_by_version_before_its_unknown_fields() {
+        let text = "// a comment\n(\n    version: 7,\n    title: \"x\",\n    future_field: 3,\n    nodes: [(id: \"a\", at: (0.0, 0.0, 0.0))],\n)\n";
+        match Project::from_ron(text) {
+            Err(ProjectError::TooNew {
+                found: 7,
+                supported: FORMAT_VERSION,
+            }) => {}
+            other => panic!("{other:?}"),
+        }
     }
 }

@@ -281,7 +281,8 @@ impl Model {
                 ));
             }
         }
-        if !nodes.is_empty() && !nodes.iter().any(|n| n.support.is_supported()) {
+        let held = |n: &Node| n.support.fixed[0] || n.support.fixed[1] || (n.support.fixed[2] && !p.planar);
+        if !nodes.is_empty() && !nodes.iter().any(held) {
             problems.push(Problem::new(
                 "rig",
                 "has no support, so it can float away",
