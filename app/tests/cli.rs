@@ -1,0 +1,129 @@
+//! The command line, run as a user would: output formats and exit codes.
+
+use std::path::PathBuf;
+use std::process::Command;
+
+fn sample(name: &str) -> PathBuf {
+    PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("../sample-projects").join(name)
+}
+
+fn rigwright(args: &[&str]) -> (i32, String, String) {
+    let out = Command::new(env!("CARGO_BIN_EXE_rigwright")).args(args).output().expect("runs");
+    (out.status.code().unwrap_or(-1), String::from_utf8_lossy(&out.stdout).into_owned(), String::from_utf8_lossy(&out.stderr).into_owned())
+}
+
+#[test]
+fn solve_json_has_the_documented_fields_and_balanced_reactions() {
+    let file = sample("sign-on-two-cables.rig.ron");
+    let (code, out, err) = rigwright(&["solve", file.to_str().unwrap(), "--case", "dead + gust", "--json"]);
+    assert_eq!(code, 0, "{err}");
+    let doc: serde_json::Value = serde_json::from_str(&out).unwrap();
+    assert_eq!(doc["format"], "rigwright.solve/1");
+    assert_eq!(doc["case"], "dead + gust");
+    assert_eq!(doc["converged"], true);
+    assert_eq!(doc["stable"], true);
+    assert!(doc["residual"].as_f64().unwrap() <= 1e-10);
+    let members = doc["members"].as_array().unwrap();
+    assert_eq!(members.len(), 2);
+    for m in members {
+        assert_eq!(m["kind"], "cable");
+        assert!(m["force"].as_f64().unwrap() > 0.0);
+        assert!(m["length"].as_f64().unwrap() > m["unstressed_length"].as_f64().unwrap());
+        assert_eq!(m["slack"], false);
+    }
+    // Reactions plus loads (45 kg sign, 250 N gust) sum to zero.
+    let mut sum = [250.0, -45.0 * 9.81, 0.0];
+    for n in doc["nodes"].as_array().unwrap() {
+        if let Some(r) = n["reaction"].as_array() {
+            for (s, v) in sum.iter_mut().zip(r) {
+                *s += v.as_f64().unwrap();
+            }
+        } else {
+            assert_eq!(n["id"], "sign");
+        }
+    }
+    assert!(sum.iter().all(|s| s.abs() < 1e-6), "{sum:?}");
+}
+
+#[test]
+fn solve_table_shows_units_and_stiffness() {
+    let file = sample("canopy-net-6x6.rig.ron");
+    let (code, out, _) = rigwright(&["solve", file.to_str().unwrap(), "--stiffness", "n3_3"]);
+    assert_eq!(code, 0);
+    assert!(out.contains("force [N]") && out.contains("tangent stiffness at node `n3_3` [N/m]") && out.contains("geometric"));
+}
+
+#[test]
+fn bad_input_exits_2_with_the_problem_on_stderr() {
+    let bad = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("../tests/bad-input/negative-ea.rig.ron");
+    let (code, out, err) = rigwright(&["solve", bad.to_str().unwrap()]);
+    assert_eq!(code, 2);
+    assert!(out.is_empty());
+    assert!(err.contains("member `left`") && err.contains("positive"), "{err}");
+    let (code, _, err) = rigwright(&["solve", "/nonexistent/rig.rig.ron"]);
+    assert_eq!(code, 2);
+    assert!(err.contains("/nonexistent/rig.rig.ron"), "{err}");
+    let file = sample("sign-on-two-cables.rig.ron");
+    let (code, _, err) = rigwright(&["solve", file.to_str().unwrap(), "--case", "hurricane"]);
+    assert_eq!(code, 2);
+    assert!(err.contains("`hurricane`") && err.contains("`dead`"), "{err}");
+}
+
+#[test]
+fn no_valid_equilibrium_exits_3_and_json_says_not_stable() {
+    let dir = std::env::temp_dir().join(format!("rigwright-cli-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let file = dir.join("pendulum.rig.ron");
+    std::fs::write(
+        &file,
+        r#"(version: 1, planar: true,
+            nodes: [(id: "base", at: (0.0, 0.0, 0.0), fixed: (true, true, true)), (id: "top", at: (0.0, 2.0, 0.0), mass: 50.0)],
+            members: [(id: "post", ends: ("base", "top"), kind: Strut(ea: 100000000.0, rest: AsDrawn))])"#,
+    )
+    .unwrap();
+    let (code, out, err) = rigwright(&["solve", file.to_str().unwrap(), "--json"]);
+    assert_eq!(code, 3);
+    let doc: serde_json::Value = serde_json::from_str(&out).unwrap();
+    assert_eq!(doc["stable"], false);
+    assert!(err.contains("unstable") && err.contains("`top`"), "{err}");
+    let (code, _, err) = rigwright(&["modes", file.to_str().unwrap()]);
+    assert_eq!(code, 3, "{err}");
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn modes_json_lists_frequencies_periods_and_shapes() {
+    let file = sample("guyed-pole.rig.ron");
+    let (code, out, err) = rigwright(&["modes", file.to_str().unwrap(), "--count", "3", "--json"]);
+    assert_eq!(code, 0, "{err}");
+    let doc: serde_json::Value = serde_json::from_str(&out).unwrap();
+    assert_eq!(doc["format"], "rigwright.modes/1");
+    let modes = doc["modes"].as_array().unwrap();
+    assert_eq!(modes.len(), 3);
+    for m in modes {
+        let f = m["frequency_hz"].as_f64().unwrap();
+        let t = m["period_s"].as_f64().unwrap();
+        assert!((f * t - 1.0).abs() < 1e-12);
+        assert_eq!(m["shape"].as_array().unwrap().len(), 5);
+    }
+}
+
+#[test]
+fn pluck_reports_frequency_energy_and_writes_csv() {
+    let dir = std::env::temp_dir().join(format!("rigwright-pluck-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let csv = dir.join("h.csv");
+    let file = sample("lamp-counterbalance.rig.ron");
+    let (code, out, err) =
+        rigwright(&["pluck", file.to_str().unwrap(), "--node", "carriage", "--offset", "0,-0.02", "--duration", "3", "--csv", csv.to_str().unwrap()]);
+    assert_eq!(code, 0, "{err}");
+    assert!(out.contains("dominant frequency") && out.contains("Hz"), "{out}");
+    let text = std::fs::read_to_string(&csv).unwrap();
+    let header = text.lines().next().unwrap();
+    assert_eq!(header, "time_s,ux_m,uy_m,uz_m,balancer_force_N,safety_force_N,kinetic_J,strain_J,load_potential_J,damped_J,numerical_J");
+    assert!(text.lines().count() > 100);
+    let (code, _, err) = rigwright(&["pluck", file.to_str().unwrap(), "--node", "nowhere", "--offset", "0,-0.02", "--duration", "1"]);
+    assert_eq!(code, 2);
+    assert!(err.contains("`nowhere`"));
+    std::fs::remove_dir_all(&dir).ok();
+}
