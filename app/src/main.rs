@@ -1,4 +1,4 @@
-//! `rigwright`: the command line (headless subcommands).
+//! `rigwright`: opens the window, or runs a headless subcommand.
 
 fn main() -> std::process::ExitCode {
     rigwright::cli::main()

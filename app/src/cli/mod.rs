@@ -18,9 +18,13 @@ pub const EXIT_NO_EQUILIBRIUM: u8 = 3;
 
 #[derive(Parser, Debug)]
 #[command(name = "rigwright", version, about = "Large-displacement statics of cable-and-spring rigs")]
+#[command(args_conflicts_with_subcommands = true)]
 pub struct Cli {
+    /// Project file (*.rig.ron) to open in the window; without it the last project reopens.
+    pub file: Option<PathBuf>,
+    /// A headless subcommand; without one the window opens.
     #[command(subcommand)]
-    pub command: Command,
+    pub command: Option<Command>,
 }
 
 #[derive(Subcommand, Debug)]
@@ -41,7 +45,8 @@ pub enum Command {
     },
 }
 
-/// Runs the command line and returns the process exit code.
+/// Runs the command line and returns the process exit code: with a subcommand it runs
+/// headless, without one it opens the window.
 pub fn main() -> ExitCode {
     let cli = match Cli::try_parse() {
         Ok(c) => c,
@@ -54,7 +59,16 @@ pub fn main() -> ExitCode {
             };
         }
     };
-    match run(cli.command) {
+    let Some(command) = cli.command else {
+        return match crate::gui::run(cli.file) {
+            Ok(()) => ExitCode::SUCCESS,
+            Err(e) => {
+                eprintln!("rigwright: could not open the window: {e}");
+                ExitCode::FAILURE
+            }
+        };
+    };
+    match run(command) {
         Ok(()) => ExitCode::SUCCESS,
         Err(Failure { code, message }) => {
             eprintln!("rigwright: {message}");

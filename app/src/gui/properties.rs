@@ -1,0 +1,351 @@
+//! Properties: edit the selected node, member or load (or the project) with units shown.
+//!
+//! Responsible for turning field edits into [`Command::Edit`]s and showing why the rig as
+//! edited is not valid. Not responsible for validation itself (the core does it).
+
+use eframe::egui::{self, DragValue, RichText};
+use rigwright_core::Project;
+use rigwright_core::model::{MemberDocKind, Rest};
+
+use super::palette as pal;
+use super::units::{Quantity, Units};
+use super::{Command, RigApp, Selection};
+
+/// A number field in display units; returns the new SI value when the user changed it.
+fn quantity(ui: &mut egui::Ui, label: &str, si: f64, q: Quantity, units: Units) -> Option<f64> {
+    let mut v = units.to_display(q, si);
+    let speed = (v.abs() * 0.005).max(0.001);
+    let mut out = None;
+    let name = ui.label(label).id;
+    ui.horizontal(|ui| {
+        let r = ui.add(DragValue::new(&mut v).speed(speed).max_decimals(6)).labelled_by(name);
+        ui.label(units.symbol(q));
+        if r.changed() && v.is_finite() {
+            out = Some(units.to_si(q, v));
+        }
+    });
+    ui.end_row();
+    out
+}
+
+/// A text field; returns the new text when changed.
+fn text(ui: &mut egui::Ui, label: &str, value: &str) -> Option<String> {
+    let mut v = value.to_string();
+    let name = ui.label(label).id;
+    let r = ui.add(egui::TextEdit::singleline(&mut v).desired_width(150.0)).labelled_by(name);
+    ui.end_row();
+    r.changed().then_some(v)
+}
+
+/// Queues an edit with a merge key, so typing or dragging in one field is one undo step.
+fn edit(app: &mut RigApp, key: String, f: impl FnOnce(&mut Project) + 'static) {
+    app.queue(Command::Edit {
+        merge: Some(key),
+        apply: Box::new(f),
+    });
+}
+
+pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
+    ui.add_space(4.0);
+    ui.heading("Properties");
+    ui.separator();
+    egui::ScrollArea::vertical().auto_shrink([false, false]).show(ui, |ui| {
+        match app.selection {
+            Selection::None => project(app, ui),
+            Selection::Node(i) => node(app, ui, i),
+            Selection::Member(i) => member(app, ui, i),
+            Selection::Load(i) => load(app, ui, i),
+        }
+        if let Some(p) = app.doc.problems.clone() {
+            ui.add_space(10.0);
+            ui.label(RichText::new("The rig as edited cannot be solved").strong().color(pal::ALARM));
+            ui.label(RichText::new("The Rig view shows the last valid rig until this is fixed:").small());
+            for line in p.lines() {
+                ui.label(RichText::new(format!("• {line}")).color(pal::ALARM));
+            }
+        }
+    });
+}
+
+fn project(app: &mut RigApp, ui: &mut egui::Ui) {
+    let units = app.settings.units;
+    let p = app.doc.project.clone();
+    ui.label(RichText::new("Project").strong());
+    egui::Grid::new("project-props").num_columns(2).spacing([8.0, 6.0]).show(ui, |ui| {
+        if let Some(t) = text(ui, "Title", &p.title) {
+            edit(app, "project-title".into(), move |d| d.title = t);
+        }
+        ui.label("Geometry");
+        ui.label(if p.planar { "planar (x–y)" } else { "3D" });
+        ui.end_row();
+        let case = app.case;
+        if let Some(c) = p.cases.get(case) {
+            if let Some(t) = text(ui, "Load case", &c.name) {
+                edit(app, format!("case-name-{case}"), move |d| d.cases[case].name = t);
+            }
+            let name = ui.label("Gravity factor").id;
+            let mut g = c.gravity;
+            if ui
+                .add(DragValue::new(&mut g).speed(0.01).max_decimals(3))
+                .labelled_by(name)
+                .changed()
+            {
+                edit(app, format!("case-g-{case}"), move |d| d.cases[case].gravity = g);
+            }
+            ui.end_row();
+        }
+        ui.label("Nodes / members");
+        ui.label(format!("{} / {}", p.nodes.len(), p.members.len()));
+        ui.end_row();
+        ui.label("Total mass");
+        ui.label(units.show(Quantity::Mass, app.doc.model.nodes.iter().map(|n| n.mass).sum()));
+        ui.end_row();
+    });
+    ui.add_space(6.0);
+    ui.label(RichText::new("Select a node, member or load on the Rig view to edit it.").weak());
+    if !p.notes.is_empty() {
+        ui.add_space(6.0);
+        ui.label(RichText::new("Notes").strong());
+        ui.label(&p.notes);
+    }
+}
+
+fn node(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
+    let units = app.settings.units;
+    let Some(n) = app.doc.project.nodes.get(i).cloned() else { return };
+    let kind = match n.fixed {
+        [true, true, true] => "Anchor",
+        [false, false, false] => "Free node",
+        _ => "Guided support",
+    };
+    ui.label(RichText::new(format!("{kind} `{}`", n.id)).strong());
+    let planar = app.doc.project.planar;
+    egui::Grid::new("node-props").num_columns(2).spacing([8.0, 6.0]).show(ui, |ui| {
+        if let Some(id) = text(ui, "Id", &n.id) {
+            let old = n.id.clone();
+            edit(app, format!("node-id-{i}"), move |d| rename_node(d, &old, &id));
+        }
+        let at = [n.at.0, n.at.1, n.at.2];
+        for (k, name) in ["x", "y", "z"].iter().enumerate() {
+            if planar && k == 2 {
+                continue;
+            }
+            if let Some(v) = quantity(ui, name, at[k], Quantity::Length, units) {
+                edit(app, format!("node-at-{i}-{k}"), move |d| match k {
+                    0 => d.nodes[i].at.0 = v,
+                    1 => d.nodes[i].at.1 = v,
+                    _ => d.nodes[i].at.2 = v,
+                });
+            }
+        }
+        if let Some(m) = quantity(ui, "Mass", n.mass, Quantity::Mass, units) {
+            edit(app, format!("node-mass-{i}"), move |d| d.nodes[i].mass = m);
+        }
+        ui.label("Held in");
+        ui.horizontal(|ui| {
+            let mut fixed = n.fixed;
+            let mut changed = false;
+            for (k, name) in ["x", "y", "z"].iter().enumerate() {
+                if planar && k == 2 {
+                    continue;
+                }
+                changed |= ui
+                    .checkbox(&mut fixed[k], *name)
+                    .on_hover_text(format!("Hold this node in {name}: the support takes a reaction along {name}"))
+                    .changed();
+            }
+            if changed {
+                edit(app, format!("node-fixed-{i}"), move |d| d.nodes[i].fixed = fixed);
+            }
+        });
+        ui.end_row();
+    });
+    if let Some(a) = app.answer()
+        && let Some(mi) = a.model.node_index(&n.id)
+    {
+        let r = &a.eq.nodes[mi];
+        ui.add_space(6.0);
+        ui.label(RichText::new("At equilibrium").strong());
+        ui.label(format!("displacement {}", units.show(Quantity::Length, r.displacement.norm())));
+        if let Some(f) = r.reaction.filter(|_| a.model.has_reaction(mi)) {
+            ui.label(format!("reaction {}", units.show(Quantity::Force, f.norm())));
+        }
+    }
+}
+
+fn rename_node(d: &mut Project, old: &str, new: &str) {
+    for n in d.nodes.iter_mut().filter(|n| n.id == old) {
+        n.id = new.to_string();
+    }
+    for m in &mut d.members {
+        if m.ends.0 == old {
+            m.ends.0 = new.to_string();
+        }
+        if m.ends.1 == old {
+            m.ends.1 = new.to_string();
+        }
+    }
+    for c in &mut d.cases {
+        for l in c.loads.iter_mut().filter(|l| l.node == old) {
+            l.node = new.to_string();
+        }
+    }
+}
+
+#[derive(Clone, Copy, PartialEq)]
+enum RestMode {
+    AsDrawn,
+    Length,
+    Tension,
+}
+
+fn member(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
+    let units = app.settings.units;
+    let Some(m) = app.doc.project.members.get(i).cloned() else { return };
+    let (class, stiff, rest) = match m.kind {
+        MemberDocKind::Cable { ea, rest } => ("Cable", ea, rest),
+        MemberDocKind::Spring { rate, rest } => ("Spring", rate, rest),
+        MemberDocKind::Strut { ea, rest } => ("Strut", ea, rest),
+    };
+    let is_spring = class == "Spring";
+    ui.label(RichText::new(format!("{class} `{}`", m.id)).strong());
+    egui::Grid::new("member-props").num_columns(2).spacing([8.0, 6.0]).show(ui, |ui| {
+        if let Some(id) = text(ui, "Id", &m.id) {
+            edit(app, format!("member-id-{i}"), move |d| d.members[i].id = id);
+        }
+        ui.label("Ends");
+        ui.label(format!("{} to {}", m.ends.0, m.ends.1));
+        ui.end_row();
+        let (label, q) = if is_spring {
+            ("Rate k", Quantity::Stiffness)
+        } else {
+            ("Axial stiffness EA", Quantity::Force)
+        };
+        if let Some(v) = quantity(ui, label, stiff, q, units) {
+            edit(app, format!("member-k-{i}"), move |d| set_stiffness(&mut d.members[i].kind, v));
+        }
+        let mode = match rest {
+            Rest::AsDrawn => RestMode::AsDrawn,
+            Rest::Length(_) => RestMode::Length,
+            Rest::Tension(_) => RestMode::Tension,
+        };
+        let (len_name, force_name) = if is_spring {
+            ("Free length", "Preload")
+        } else {
+            ("Unstressed length", "Pretension")
+        };
+        let name = ui.label("Rest state").id;
+        let mut new_mode = mode;
+        egui::ComboBox::from_id_salt("rest-mode")
+            .selected_text(match mode {
+                RestMode::AsDrawn => "stress-free as drawn",
+                RestMode::Length => len_name,
+                RestMode::Tension => force_name,
+            })
+            .show_ui(ui, |ui| {
+                ui.selectable_value(&mut new_mode, RestMode::AsDrawn, "stress-free as drawn");
+                ui.selectable_value(&mut new_mode, RestMode::Length, len_name);
+                ui.selectable_value(&mut new_mode, RestMode::Tension, force_name);
+            })
+            .response
+            .labelled_by(name);
+        ui.end_row();
+        if new_mode != mode {
+            let drawn = drawn_length(&app.doc.project, i).unwrap_or(1.0);
+            let rest = match new_mode {
+                RestMode::AsDrawn => Rest::AsDrawn,
+                RestMode::Length => Rest::Length(drawn),
+                RestMode::Tension => Rest::Tension(0.0),
+            };
+            edit(app, format!("member-rest-mode-{i}"), move |d| {
+                set_rest(&mut d.members[i].kind, rest)
+            });
+        }
+        match rest {
+            Rest::Length(l) => {
+                if let Some(v) = quantity(ui, len_name, l, Quantity::Length, units) {
+                    edit(app, format!("member-rest-{i}"), move |d| {
+                        set_rest(&mut d.members[i].kind, Rest::Length(v))
+                    });
+                }
+            }
+            Rest::Tension(t) => {
+                if let Some(v) = quantity(ui, force_name, t, Quantity::Force, units) {
+                    edit(app, format!("member-rest-{i}"), move |d| {
+                        set_rest(&mut d.members[i].kind, Rest::Tension(v))
+                    });
+                }
+            }
+            Rest::AsDrawn => {}
+        }
+        if let Some(v) = quantity(ui, "Mass per length", m.mass_per_length, Quantity::MassPerLength, units) {
+            edit(app, format!("member-mpl-{i}"), move |d| d.members[i].mass_per_length = v);
+        }
+        if let Some(l) = drawn_length(&app.doc.project, i) {
+            ui.label("Drawn length");
+            ui.label(units.show(Quantity::Length, l));
+            ui.end_row();
+        }
+    });
+    if let Some(a) = app.answer()
+        && let Some(mi) = a.model.member_index(&m.id)
+    {
+        let r = &a.eq.members[mi];
+        ui.add_space(6.0);
+        ui.label(RichText::new("At equilibrium").strong());
+        ui.label(if r.slack {
+            "slack".to_string()
+        } else {
+            format!("force {}", units.show(Quantity::Force, r.force))
+        });
+        ui.label(format!("length {}", units.show(Quantity::Length, r.length)));
+    }
+}
+
+fn drawn_length(p: &Project, i: usize) -> Option<f64> {
+    let m = p.members.get(i)?;
+    let at = |id: &str| p.nodes.iter().find(|n| n.id == id).map(|n| n.at);
+    let (a, b) = (at(&m.ends.0)?, at(&m.ends.1)?);
+    Some(((b.0 - a.0).powi(2) + (b.1 - a.1).powi(2) + (b.2 - a.2).powi(2)).sqrt())
+}
+
+fn set_stiffness(kind: &mut MemberDocKind, v: f64) {
+    match kind {
+        MemberDocKind::Cable { ea, .. } | MemberDocKind::Strut { ea, .. } => *ea = v,
+        MemberDocKind::Spring { rate, .. } => *rate = v,
+    }
+}
+
+fn set_rest(kind: &mut MemberDocKind, r: Rest) {
+    match kind {
+        MemberDocKind::Cable { rest, .. } | MemberDocKind::Strut { rest, .. } | MemberDocKind::Spring { rest, .. } => *rest = r,
+    }
+}
+
+fn load(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
+    let units = app.settings.units;
+    let case = app.case;
+    let Some(l) = app.doc.project.cases.get(case).and_then(|c| c.loads.get(i)).cloned() else {
+        return;
+    };
+    ui.label(RichText::new("Point load").strong());
+    ui.label(format!("on node `{}`, load case `{}`", l.node, app.doc.project.cases[case].name));
+    egui::Grid::new("load-props").num_columns(2).spacing([8.0, 6.0]).show(ui, |ui| {
+        let f = [l.force.0, l.force.1, l.force.2];
+        for (k, name) in ["Fx", "Fy", "Fz"].iter().enumerate() {
+            if app.doc.project.planar && k == 2 {
+                continue;
+            }
+            if let Some(v) = quantity(ui, name, f[k], Quantity::Force, units) {
+                edit(app, format!("load-{case}-{i}-{k}"), move |d| {
+                    let force = &mut d.cases[case].loads[i].force;
+                    match k {
+                        0 => force.0 = v,
+                        1 => force.1 = v,
+                        _ => force.2 = v,
+                    }
+                });
+            }
+        }
+    });
+}

@@ -1,0 +1,149 @@
+//! Solving off the UI thread: requests go to a worker, the newest request wins.
+//!
+//! Responsible for running `rigwright-core` solvers for the app (inline for small rigs, on a
+//! worker thread for large ones) and handing back plain outcomes. Computes no mechanics itself.
+
+use std::sync::Arc;
+use std::sync::mpsc::{Receiver, Sender, channel};
+use std::time::{Duration, Instant};
+
+use rigwright_core::{Equilibrium, Model, NodeStiffness, Statics, Vec3};
+
+/// Rigs with at most this many free degrees of freedom are solved inline (a few milliseconds).
+pub const INLINE_DOFS: usize = 400;
+
+/// What to solve.
+#[derive(Clone)]
+pub struct SolveRequest {
+    /// Increases with every request; outcomes of older requests are dropped.
+    pub generation: u64,
+    pub model: Arc<Model>,
+    pub case: usize,
+    /// Node positions of a nearby equilibrium of the same model (warm start).
+    pub warm: Option<Vec<Vec3>>,
+    /// Hold this node at this position (Pull).
+    pub hold: Option<(usize, Vec3)>,
+    /// Also condense the tangent stiffness to this node (unheld solves only).
+    pub stiffness_at: Option<usize>,
+}
+
+/// What came back.
+pub struct SolveOutcome {
+    pub generation: u64,
+    pub model: Arc<Model>,
+    pub case: usize,
+    pub hold: Option<(usize, Vec3)>,
+    /// The equilibrium, or the diagnostic why there is none.
+    pub result: Result<Equilibrium, String>,
+    pub stiffness: Option<Result<NodeStiffness, String>>,
+    /// Wall time of the solve.
+    pub elapsed: Duration,
+}
+
+/// Runs one request on the calling thread.
+pub fn solve_now(req: &SolveRequest) -> SolveOutcome {
+    let start = Instant::now();
+    let model = &*req.model;
+    let warm = req.warm.as_deref().filter(|w| w.len() == model.nodes.len());
+    let (result, stiffness) = match req.hold {
+        Some((node, at)) => (Statics::holding(model, node).solve_held(req.case, at, warm), None),
+        None => {
+            let statics = Statics::new(model);
+            let result = statics.solve(req.case, warm);
+            let stiffness = match (&result, req.stiffness_at) {
+                (Ok(eq), Some(n)) if eq.stability.is_stable() => Some(statics.node_stiffness(eq, n).map_err(|e| e.to_string())),
+                _ => None,
+            };
+            (result, stiffness)
+        }
+    };
+    SolveOutcome {
+        generation: req.generation,
+        model: req.model.clone(),
+        case: req.case,
+        hold: req.hold,
+        result: result.map_err(|e| e.to_string()),
+        stiffness,
+        elapsed: start.elapsed(),
+    }
+}
+
+/// Free degrees of freedom of a model, roughly (free axes of all nodes).
+pub fn free_dofs(model: &Model) -> usize {
+    model.nodes.iter().map(|n| n.support.fixed.iter().filter(|f| !**f).count()).sum()
+}
+
+/// Sends requests to a worker thread and collects the newest outcome.
+pub struct Solver {
+    to_worker: Sender<SolveRequest>,
+    from_worker: Receiver<SolveOutcome>,
+    /// Generation of the newest request sent.
+    pub latest: u64,
+    /// A request is on the worker and not answered yet.
+    pub busy: bool,
+}
+
+impl Solver {
+    /// Starts the worker. `wake` is called after each outcome (to repaint the window).
+    pub fn new(wake: impl Fn() + Send + 'static) -> Self {
+        let (to_worker, requests) = channel::<SolveRequest>();
+        let (answers, from_worker) = channel::<SolveOutcome>();
+        std::thread::Builder::new()
+            .name("rigwright-solver".into())
+            .spawn(move || {
+                while let Ok(mut req) = requests.recv() {
+                    // Drop stale requests: only the newest one matters.
+                    while let Ok(newer) = requests.try_recv() {
+                        req = newer;
+                    }
+                    if answers.send(solve_now(&req)).is_err() {
+                        break;
+                    }
+                    wake();
+                }
+            })
+            .expect("the solver thread starts");
+        Solver {
+            to_worker,
+            from_worker,
+            latest: 0,
+            busy: false,
+        }
+    }
+
+    /// Submits a request; small rigs are solved at once and the outcome returned.
+    pub fn submit(&mut self, mut req: SolveRequest) -> Option<SolveOutcome> {
+        self.latest += 1;
+        req.generation = self.latest;
+        if free_dofs(&req.model) <= INLINE_DOFS {
+            self.busy = false;
+            return Some(solve_now(&req));
+        }
+        self.busy = true;
+        // If the worker is gone the request is solved here instead.
+        match self.to_worker.send(req) {
+            Ok(()) => None,
+            Err(e) => {
+                self.busy = false;
+                Some(solve_now(&e.0))
+            }
+        }
+    }
+
+    /// The newest outcome from the worker that is not stale, if any arrived.
+    pub fn poll(&mut self) -> Option<SolveOutcome> {
+        let mut newest = None;
+        while let Ok(o) = self.from_worker.try_recv() {
+            if o.generation == self.latest {
+                self.busy = false;
+            }
+            newest = Some(o);
+        }
+        newest
+    }
+}
+
+/// Condensed tangent stiffness at `node` of a solved equilibrium, on the calling thread.
+pub fn stiffness_now(model: &Model, eq: &Equilibrium, node: usize) -> Option<NodeStiffness> {
+    Statics::new(model).node_stiffness(eq, node).ok()
+}

@@ -1,0 +1,189 @@
+//! Interaction tests of the desktop app, driven through the UI by role and label with
+//! egui_kittest (no display or GPU needed).
+
+use eframe::egui::{self, Pos2};
+use egui_kittest::Harness;
+use egui_kittest::kittest::{NodeT, Queryable};
+use rigwright::RigApp;
+use rigwright::gui::{Command, Quantity, Selection, Settings, Units};
+
+fn harness() -> Harness<'static, RigApp> {
+    Harness::builder()
+        .with_size(egui::vec2(1280.0, 800.0))
+        .build_eframe(|cc| RigApp::with_settings(&cc.egui_ctx, Settings::default(), None))
+}
+
+/// Presses and releases the primary button at `p` on the Rig view.
+fn click_at(h: &mut Harness<'static, RigApp>, p: Pos2) {
+    h.hover_at(p);
+    h.run();
+    h.drag_at(p);
+    h.step();
+    h.drop_at(p);
+    h.run();
+}
+
+fn at(h: &Harness<'static, RigApp>, x: f64, y: f64) -> Pos2 {
+    h.state().screen_pos([x, y, 0.0])
+}
+
+fn tool(h: &mut Harness<'static, RigApp>, label: &str) {
+    h.get_by_role_and_label(egui::accesskit::Role::Button, label).click();
+    h.run();
+}
+
+/// Builds two anchors, a 10 kg node below between them and two cables, all through the UI.
+fn build_small_rig(h: &mut Harness<'static, RigApp>) {
+    h.get_by_label("File").click();
+    h.run();
+    h.get_by_label("New").click();
+    h.run();
+    assert!(h.state().doc.project.nodes.is_empty());
+    tool(h, "Anchor");
+    let (a1, a2, m) = (at(h, -2.0, 1.0), at(h, 2.0, 1.0), at(h, 0.0, -1.0));
+    click_at(h, a1);
+    click_at(h, a2);
+    tool(h, "Node");
+    click_at(h, m);
+    tool(h, "Cable");
+    click_at(h, a1);
+    click_at(h, m);
+    click_at(h, a2);
+    click_at(h, m);
+}
+
+#[test]
+fn a_rig_built_through_the_ui_shows_its_solved_cable_tension() {
+    let mut h = harness();
+    build_small_rig(&mut h);
+    let app = h.state();
+    assert_eq!(app.doc.project.nodes.len(), 3, "{:?}", app.doc.project.nodes);
+    assert_eq!(app.doc.project.members.len(), 2);
+    assert!(app.doc.problems.is_none(), "{:?}", app.doc.problems);
+    let a = app.answer().expect("the rig solves");
+    // Symmetric: each cable at 45°, T = m g / (2 sin 45°).
+    let expected = 10.0 * 9.81 / (2.0 * std::f64::consts::FRAC_1_SQRT_2);
+    let force = a.eq.members[0].force;
+    assert!(
+        (force - expected).abs() < 0.01 * expected,
+        "tension {force} N, expected about {expected} N"
+    );
+    let text = Units::Si.show(Quantity::Force, force);
+    assert!(h.query_all_by_label(&text).count() >= 1, "the Members readout shows {text}");
+}
+
+#[test]
+fn undo_removes_the_last_member_and_redo_restores_it() {
+    let mut h = harness();
+    build_small_rig(&mut h);
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    assert_eq!(h.state().doc.project.members.len(), 1);
+    h.key_press_modifiers(egui::Modifiers::COMMAND | egui::Modifiers::SHIFT, egui::Key::Z);
+    h.run();
+    assert_eq!(h.state().doc.project.members.len(), 2);
+    h.get_by_label("Edit").click();
+    h.run();
+    h.get_by_label("Undo").click();
+    h.run();
+    assert_eq!(h.state().doc.project.members.len(), 1);
+}
+
+fn restoring_text(h: &Harness<'static, RigApp>) -> String {
+    let node = h.get_by_label_contains("Restoring force");
+    let a = node.accesskit_node();
+    a.label().or_else(|| a.value()).unwrap_or_default()
+}
+
+#[test]
+fn pulling_a_node_shows_a_restoring_force_that_grows_with_the_pull() {
+    let mut h = harness();
+    // The default sample: a sign hung from two wall cables; the sign node is at (1.8, 2.6) m.
+    tool(&mut h, "Pull");
+    let start = {
+        let a = h.state().answer().expect("the sample solves");
+        let i = a.model.node_index("sign").unwrap();
+        let p = a.eq.nodes[i].position;
+        h.state().screen_pos([p.x, p.y, p.z])
+    };
+    h.hover_at(start);
+    h.run();
+    h.drag_at(start);
+    h.step();
+    let mut texts = Vec::new();
+    for k in 1..=6 {
+        h.hover_at(start + egui::vec2(6.0 * k as f32, 0.0));
+        h.run();
+        if k == 3 || k == 6 {
+            texts.push(restoring_text(&h));
+        }
+    }
+    let pull = h.state().pull.as_ref().expect("a pull runs");
+    assert!(pull.active);
+    assert!(pull.samples.len() > 2);
+    assert_ne!(
+        texts[0], texts[1],
+        "the restoring force readout changes as the node is pulled further"
+    );
+    assert!(texts[1].contains(" N"), "{}", texts[1]);
+    h.drop_at(start + egui::vec2(36.0, 0.0));
+    h.run();
+    assert!(!h.state().pull.as_ref().unwrap().active);
+    assert!(h.state().answer().is_some(), "after release the rig is solved again");
+}
+
+#[test]
+fn save_and_reopen_through_the_command_path_gives_the_same_project() {
+    let dir = std::env::temp_dir().join(format!("rigwright-ui-test-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let path = dir.join("small.rig.ron");
+    let mut h = harness();
+    build_small_rig(&mut h);
+    let built = h.state().doc.project.clone();
+    h.state_mut().queue(Command::SaveTo(path.clone()));
+    h.run();
+    assert!(!h.state().doc.dirty);
+    assert!(h.state().title().starts_with("small.rig.ron"), "{}", h.state().title());
+    // Change something, then reopen: the app asks before discarding the change.
+    h.state_mut().selection = Selection::Node(0);
+    h.key_press(egui::Key::Delete);
+    h.run();
+    assert!(h.state().doc.dirty);
+    assert!(h.state().title().starts_with('●'));
+    h.state_mut().queue(Command::Open(path.clone()));
+    h.run();
+    h.get_by_label("Discard changes").click();
+    h.run();
+    assert_eq!(h.state().doc.project, built);
+    assert!(!h.state().doc.dirty);
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn a_bad_file_keeps_the_current_project_and_names_the_problem() {
+    let dir = std::env::temp_dir().join(format!("rigwright-ui-bad-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let path = dir.join("bad.rig.ron");
+    std::fs::write(
+        &path,
+        "(version: 1, nodes: [(id: \"a\", at: (0.0, 0.0, 0.0), fixd: (true, true, true))], members: [])",
+    )
+    .unwrap();
+    let mut h = harness();
+    let before = h.state().doc.project.clone();
+    h.state_mut().queue(Command::Open(path));
+    h.run();
+    assert_eq!(h.state().doc.project, before);
+    let (msg, is_error) = h.state().message.clone().unwrap();
+    assert!(is_error && msg.contains("fixd"), "{msg}");
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn switching_units_shows_forces_in_pounds_force() {
+    let mut h = harness();
+    h.get_by_label("SI").click();
+    h.run();
+    assert_eq!(h.state().settings.units, Units::Us);
+    assert!(h.query_all_by_label_contains(" lbf").count() > 0);
+}
