@@ -275,25 +275,44 @@ impl Motion {
     }
 
     /// One time step.
+    ///
+    /// A step whose Newton iterations fail (a violent snap, a cable catching) is retried as two
+    /// half steps, down to 1/64 of `dt`, before an error is returned.
     pub fn step(&mut self) -> Result<(), MotionError> {
+        self.step_split(self.settings.dt, 0)
+    }
+
+    fn step_split(&mut self, dt: f64, depth: u32) -> Result<(), MotionError> {
+        let saved = (self.pos.clone(), self.vel.clone(), self.acc.clone());
+        match self.step_once(dt) {
+            Ok(()) => Ok(()),
+            Err(e) if depth >= 6 => Err(e),
+            Err(_) => {
+                (self.pos, self.vel, self.acc) = saved;
+                self.step_split(0.5 * dt, depth + 1)?;
+                self.step_split(0.5 * dt, depth + 1)
+            }
+        }
+    }
+
+    fn step_once(&mut self, dt: f64) -> Result<(), MotionError> {
         let v0 = self.vel.clone();
         match self.settings.scheme {
-            Scheme::EnergyConserving => self.step_midpoint()?,
-            Scheme::GeneralizedAlpha { rho_inf } => self.step_alpha(rho_inf.clamp(0.0, 1.0))?,
+            Scheme::EnergyConserving => self.step_midpoint(dt)?,
+            Scheme::GeneralizedAlpha { rho_inf } => self.step_alpha(dt, rho_inf.clamp(0.0, 1.0))?,
         }
         // Damping work with the mean velocity of the step (exact for the midpoint rule).
         let vm: Vec<f64> = v0.iter().zip(&self.vel).map(|(a, b)| 0.5 * (a + b)).collect();
         let cv = self.damping_times(&vm);
-        self.damped += self.settings.dt * vm.iter().zip(&cv).map(|(v, c)| v * c).sum::<f64>();
-        self.time += self.settings.dt;
+        self.damped += dt * vm.iter().zip(&cv).map(|(v, c)| v * c).sum::<f64>();
+        self.time += dt;
         let slack = member_slack(&self.model, &self.pos);
         self.slack_events += slack.iter().zip(&self.slack).filter(|(now, was)| **now && !**was).count();
         self.slack = slack;
         Ok(())
     }
 
-    fn step_midpoint(&mut self) -> Result<(), MotionError> {
-        let dt = self.settings.dt;
+    fn step_midpoint(&mut self, dt: f64) -> Result<(), MotionError> {
         let sys = &self.system;
         let model = &self.model;
         let x0 = self.pos.clone();
@@ -351,8 +370,7 @@ impl Motion {
         unreachable!("loop returns")
     }
 
-    fn step_alpha(&mut self, rho: f64) -> Result<(), MotionError> {
-        let dt = self.settings.dt;
+    fn step_alpha(&mut self, dt: f64, rho: f64) -> Result<(), MotionError> {
         let am = (2.0 * rho - 1.0) / (rho + 1.0);
         let af = rho / (rho + 1.0);
         let gamma = 0.5 - am + af;
