@@ -178,7 +178,7 @@ pub fn status_bar(app: &mut RigApp, ui: &mut egui::Ui) {
                         state,
                         eq.iterations,
                         eq.load_steps,
-                        eq.residual,
+                        eq.residual.abs(),
                         s.elapsed.as_secs_f64() * 1e3
                     ));
                 }

@@ -403,7 +403,7 @@ impl RigApp {
         self.pull = None;
         self.solved = None;
         self.requested = None;
-        self.view.fit_next = true;
+        self.view.choose_plane(&self.doc.project);
     }
 
     fn remember(&mut self, path: &Path) {

@@ -292,6 +292,7 @@ fn pull(app: &RigApp, ui: &mut egui::Ui) {
             .legend(Legend::default())
             .x_axis_label(format!("displacement from start ({})", units.symbol(lu)))
             .y_axis_label(format!("holding force along the pull ({})", units.symbol(fu)))
+            .y_axis_min_width(56.0)
             .show(ui, |plot| {
                 plot.line(
                     Line::new("equilibrium (large displacement)", PlotPoints::from(measured))

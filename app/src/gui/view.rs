@@ -81,6 +81,7 @@ pub struct RigView {
     rect: Rect,
     /// Fit the rig into the canvas on the next frame.
     pub fit_next: bool,
+    fit_frames: u8,
     /// First node picked by a member tool (document index).
     member_start: Option<usize>,
     drag: Drag,
@@ -95,6 +96,7 @@ impl Default for RigView {
             scale: 80.0,
             rect: Rect::from_min_size(Pos2::ZERO, vec2(800.0, 500.0)),
             fit_next: true,
+            fit_frames: 0,
             member_start: None,
             drag: Drag::None,
             serial: 0,
@@ -140,6 +142,29 @@ impl RigView {
         }
     }
 
+    /// Elevation for a planar rig; for a 3D rig the view in which it spreads out most.
+    pub fn choose_plane(&mut self, project: &Project) {
+        let mut lo = [f64::INFINITY; 3];
+        let mut hi = [f64::NEG_INFINITY; 3];
+        for n in &project.nodes {
+            for (k, v) in [n.at.0, n.at.1, n.at.2].into_iter().enumerate() {
+                lo[k] = lo[k].min(v);
+                hi[k] = hi[k].max(v);
+            }
+        }
+        let e: Vec<f64> = (0..3).map(|k| (hi[k] - lo[k]).max(1e-6)).collect();
+        self.plane = if project.planar || project.nodes.is_empty() {
+            Plane::Elevation
+        } else if e[0] * e[2] > 1.5 * (e[0] * e[1]).max(e[2] * e[1]) {
+            Plane::Plan
+        } else if e[2] * e[1] > e[0] * e[1] {
+            Plane::Side
+        } else {
+            Plane::Elevation
+        };
+        self.fit_next = true;
+    }
+
     fn fit(&mut self, points: &[Vec3]) {
         if points.is_empty() {
             self.center = [0.0, 0.0];
@@ -155,15 +180,19 @@ impl RigView {
                 hi[k] = hi[k].max(uv[k]);
             }
         }
-        self.center = [(lo[0] + hi[0]) / 2.0, (lo[1] + hi[1]) / 2.0];
+        // Leave room for the banner (top), the legend (right) and the scale bar (bottom left).
+        let inner = Rect::from_min_max(self.rect.min + vec2(100.0, 80.0), self.rect.max - vec2(290.0, 80.0));
         let w = (hi[0] - lo[0]).max(1e-3);
         let h = (hi[1] - lo[1]).max(1e-3);
-        let sx = self.rect.width() as f64 * 0.7 / w;
-        let sy = self.rect.height() as f64 * 0.62 / h;
+        let sx = inner.width().max(50.0) as f64 / w;
+        let sy = inner.height().max(50.0) as f64 / h;
         self.scale = sx.min(sy).clamp(1e-3, 1e7);
         if w < 1e-2 && h < 1e-2 {
             self.scale = 80.0;
         }
+        let mid = [(lo[0] + hi[0]) / 2.0, (lo[1] + hi[1]) / 2.0];
+        let off = inner.center() - self.rect.center();
+        self.center = [mid[0] - off.x as f64 / self.scale, mid[1] + off.y as f64 / self.scale];
     }
 
     /// Grid step (m) and its value in display units: about 40 px, a 1-2-5 multiple of a power of ten.
@@ -226,12 +255,17 @@ pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
     let rect = response.rect;
     app.view.rect = rect;
     if app.view.fit_next {
+        app.view.fit_next = false;
+        app.view.fit_frames = 3;
+    }
+    if app.view.fit_frames > 0 {
+        // Panels settle over the first frames; fit again until they have.
+        app.view.fit_frames -= 1;
         let mut pts: Vec<Vec3> = (0..app.doc.project.nodes.len()).map(|i| node_pos(&app.doc.project, i)).collect();
         if let Some(a) = app.answer() {
             pts.extend(a.eq.positions());
         }
         app.view.fit(&pts);
-        app.view.fit_next = false;
     }
     navigate(app, ui, &response);
 
@@ -409,13 +443,12 @@ fn draw_answer(app: &RigApp, a: &Answer<'_>, painter: &egui::Painter, units: Uni
             MemberClass::Spring => hollow_or_solid(painter, zigzag(sa, sb), colour, compression, 2.0),
             _ => hollow_or_solid(painter, vec![sa, sb], colour, compression, 3.2),
         }
-        if labels && !r.slack {
+        if labels && !r.slack && sa.distance(sb) > 56.0 {
             let mid = sa + (sb - sa) * 0.5;
             let n = (sb - sa).normalized().rot90();
             texts.push((mid + n * 11.0, units.show(Quantity::Force, r.force), pal::INK));
         } else if labels && r.slack {
-            let mid = sa + (sb - sa) * 0.5;
-            texts.push((mid, "slack".into(), pal::SLACK));
+            texts.push((sa + (sb - sa) * 0.3, "slack".into(), pal::SLACK));
         }
     }
 
@@ -434,7 +467,7 @@ fn draw_answer(app: &RigApp, a: &Answer<'_>, painter: &egui::Painter, units: Uni
             let r = (3.0 + 1.6 * n.mass.cbrt()).clamp(4.0, 11.0) as f32;
             painter.circle(s, r, pal::INK, Stroke::new(1.0, pal::PAPER));
             if labels {
-                texts.push((s + vec2(r + 4.0, -r - 4.0), units.show(Quantity::Mass, n.mass), pal::INK));
+                texts.push((s + vec2(0.0, r + 11.0), units.show(Quantity::Mass, n.mass), pal::INK));
             }
         } else if !model.has_reaction(i) {
             painter.circle(s, 3.0, pal::PAPER, Stroke::new(1.4, pal::INK));
@@ -459,10 +492,15 @@ fn draw_answer(app: &RigApp, a: &Answer<'_>, painter: &egui::Painter, units: Uni
             if v.length() < 3.0 {
                 continue;
             }
-            let tip = pos(i) - v.normalized() * 5.0;
-            painter.arrow(tip - v, v, Stroke::new(2.0, pal::REACTION));
+            // Drawn at the support, pointing the way the support pushes or pulls on the rig.
+            let tail = pos(i) + v.normalized() * 6.0;
+            painter.arrow(tail, v, Stroke::new(2.0, pal::REACTION));
             if labels {
-                texts.push((tip - v * 1.12, units.show(Quantity::Force, r.norm()), pal::REACTION));
+                texts.push((
+                    tail + v + v.normalized() * 22.0,
+                    units.show(Quantity::Force, r.norm()),
+                    pal::REACTION,
+                ));
             }
         }
     }
@@ -489,8 +527,9 @@ fn draw_answer(app: &RigApp, a: &Answer<'_>, painter: &egui::Painter, units: Uni
     draw_stiffness(app, a, painter, units, &mut texts);
     draw_pull(app, a, painter, units, &mut texts);
 
+    let inside = view.rect.shrink(30.0);
     for (p, t, c) in texts {
-        label(painter, p, &t, c);
+        label(painter, p.clamp(inside.min, inside.max), &t, c);
     }
 }
 
