@@ -171,33 +171,22 @@ fn dense_pairs(apply: &dyn Fn(&[f64]) -> Vec<f64>, m: usize, count: usize) -> Ve
 }
 
 /// Largest `count` eigenpairs of `B` by block Lanczos with full reorthogonalisation.
+///
+/// The Krylov basis grows one block at a time; from a minimum size on, the Ritz pairs are
+/// checked every few blocks and the iteration stops as soon as the wanted ones have converged:
+/// ‖B x − θ x‖ = ‖β_last s_last‖ ≤ 1e-9 θ_max (Golub & Van Loan §10.3).
 fn lanczos_pairs(apply: &dyn Fn(&[f64]) -> Vec<f64>, m: usize, count: usize) -> Result<Vec<(f64, Vec<f64>)>, ModeError> {
-    let max_blocks = (m / BLOCK).max(1);
-    let mut blocks = ((2 * count + 20) / BLOCK).max(6).min(max_blocks);
-    loop {
-        let (pairs, unconverged) = lanczos_run(apply, m, count, blocks);
-        if unconverged == 0 {
-            return Ok(pairs);
-        }
-        if blocks >= max_blocks {
-            return Err(ModeError::NotConverged(unconverged));
-        }
-        blocks = (blocks * 2).min(max_blocks);
-    }
-}
-
-fn lanczos_run(apply: &dyn Fn(&[f64]) -> Vec<f64>, m: usize, count: usize, blocks: usize) -> (Vec<(f64, Vec<f64>)>, usize) {
     let b = BLOCK.min(m);
+    let max_blocks = (m / b).max(1);
+    let min_blocks = ((count + 8) / b + 2).min(max_blocks);
     // Deterministic, well-spread start block.
     let start = DMatrix::from_fn(m, b, |i, j| (((i + 1) * (j + 3) * 2654435761usize) % 1000) as f64 / 1000.0 - 0.5);
     let mut q = qr_block(start).0;
     let mut basis: Vec<DMatrix<f64>> = vec![q.clone()];
-    let dim = blocks * b;
-    let mut t = DMatrix::zeros(dim, dim);
+    let mut t = DMatrix::zeros(max_blocks * b, max_blocks * b);
     let mut beta_prev: Option<DMatrix<f64>> = None;
-    let mut last_beta = DMatrix::zeros(b, b);
-    let mut used = 0;
-    for k in 0..blocks {
+    let mut unconverged = count;
+    for k in 0..max_blocks {
         let mut w = DMatrix::zeros(m, b);
         for j in 0..b {
             let col: Vec<f64> = q.column(j).iter().copied().collect();
@@ -217,20 +206,43 @@ fn lanczos_run(apply: &dyn Fn(&[f64]) -> Vec<f64>, m: usize, count: usize, block
         }
         let a = (&a + a.transpose()) * 0.5;
         t.view_mut((k * b, k * b), (b, b)).copy_from(&a);
-        used = k + 1;
         let (qn, beta) = qr_block(w);
-        last_beta = beta.clone();
-        if k + 1 < blocks {
-            t.view_mut(((k + 1) * b, k * b), (b, b)).copy_from(&beta);
-            t.view_mut((k * b, (k + 1) * b), (b, b)).copy_from(&beta.transpose());
-            beta_prev = Some(beta);
-            q = qn;
-            basis.push(q.clone());
+        let used = k + 1;
+        if used >= min_blocks && (used % 3 == 0 || used == max_blocks) {
+            let (pairs, left) = ritz_pairs(&t, &basis, &beta, used, b, m, count);
+            unconverged = left;
+            if left == 0 || used == max_blocks {
+                if left == 0 {
+                    return Ok(pairs);
+                }
+                break;
+            }
         }
+        if used == max_blocks {
+            break;
+        }
+        t.view_mut(((k + 1) * b, k * b), (b, b)).copy_from(&beta);
+        t.view_mut((k * b, (k + 1) * b), (b, b)).copy_from(&beta.transpose());
+        beta_prev = Some(beta);
+        q = qn;
+        basis.push(q.clone());
     }
+    Err(ModeError::NotConverged(unconverged))
+}
+
+/// Ritz pairs from the first `used` blocks, largest first, and how many of the first `count`
+/// have not converged.
+fn ritz_pairs(
+    t: &DMatrix<f64>,
+    basis: &[DMatrix<f64>],
+    last_beta: &DMatrix<f64>,
+    used: usize,
+    b: usize,
+    m: usize,
+    count: usize,
+) -> (Vec<(f64, Vec<f64>)>, usize) {
     let dim = used * b;
-    let t = t.view((0, 0), (dim, dim)).into_owned();
-    let eig = SymmetricEigen::new(t);
+    let eig = SymmetricEigen::new(t.view((0, 0), (dim, dim)).into_owned());
     let mut idx: Vec<usize> = (0..dim).collect();
     idx.sort_by(|&i, &j| eig.eigenvalues[j].total_cmp(&eig.eigenvalues[i]));
     let top = eig.eigenvalues[idx[0]].abs().max(1e-300);
@@ -238,23 +250,16 @@ fn lanczos_run(apply: &dyn Fn(&[f64]) -> Vec<f64>, m: usize, count: usize, block
     let mut pairs = Vec::new();
     for &i in idx.iter().take(count) {
         let s = eig.eigenvectors.column(i);
-        // Residual ‖B x − θ x‖ = ‖β_last · s_last‖.
         let tail = s.rows(dim - b, b).into_owned();
-        let res = (&last_beta * tail).norm();
-        if res > 1e-8 * top {
+        if (last_beta * tail).norm() > 1e-9 * top {
             unconverged += 1;
         }
-        let mut y = vec![0.0; m];
+        let mut y = DVector::zeros(m);
         for (kb, qb) in basis.iter().enumerate().take(used) {
-            let coeff = s.rows(kb * b, b);
-            let v = qb * coeff;
-            for r in 0..m {
-                y[r] += v[r];
-            }
+            y += qb * s.rows(kb * b, b);
         }
-        let nrm = y.iter().map(|v| v * v).sum::<f64>().sqrt();
-        y.iter_mut().for_each(|v| *v /= nrm);
-        pairs.push((eig.eigenvalues[i], y));
+        let nrm = y.norm();
+        pairs.push((eig.eigenvalues[i], (y / nrm).iter().copied().collect()));
     }
     (pairs, unconverged)
 }

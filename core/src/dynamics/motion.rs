@@ -19,7 +19,7 @@
 use serde::Serialize;
 
 use crate::model::{Model, Vec3};
-use crate::solve::system::{DofMap, Part, System};
+use crate::solve::system::{DofMap, Factor, Part, System};
 
 /// Time-integration scheme.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
@@ -121,6 +121,9 @@ pub struct Motion {
     slack_events: usize,
     /// Size of the rig (m), for round-off tests on position corrections.
     length_scale: f64,
+    /// Factorised step Jacobian and the step size it was built for, reused across Newton
+    /// iterations and steps (modified Newton) until convergence slows.
+    jacobian: Option<(f64, Factor)>,
 }
 
 impl Motion {
@@ -168,6 +171,7 @@ impl Motion {
             slack,
             slack_events: 0,
             length_scale: 0.0,
+            jacobian: None,
         };
         motion.length_scale = motion.model.extent();
         motion.acc = motion.initial_acceleration();
@@ -322,6 +326,7 @@ impl Motion {
         sys.add_scaled(&mut x1, &v0, dt);
         let n = sys.size();
         let (a0, a1) = self.settings.rayleigh;
+        let mut prev_rel = f64::INFINITY;
         for it in 0..=self.settings.max_iterations {
             let dx = diff(sys, &x1, &x0);
             let v1: Vec<f64> = dx.iter().zip(&v0).map(|(d, v)| 2.0 * d / dt - v).collect();
@@ -347,17 +352,26 @@ impl Motion {
                     residual: rel,
                 });
             }
-            // Jacobian ≈ 2M/Δt² + C/Δt + ½ K_T(x_mid).
-            let mid: Vec<Vec3> = x0.iter().zip(&x1).map(|(a, b)| (a + b) * 0.5).collect();
-            let mut jac: Vec<f64> = sys.assemble(model, &mid, Part::Total).iter().map(|v| 0.5 * v).collect();
-            if a1 != 0.0 {
-                jac.iter_mut().zip(&self.k0).for_each(|(j, k)| *j += a1 * k / dt);
+            // Jacobian ≈ 2M/Δt² + C/Δt + ½ K_T(x_mid), refactorised only when needed.
+            let slow = rel > 0.25 * prev_rel;
+            prev_rel = rel;
+            if slow || self.jacobian.as_ref().is_none_or(|(h, _)| *h != dt) {
+                let mid: Vec<Vec3> = x0.iter().zip(&x1).map(|(a, b)| (a + b) * 0.5).collect();
+                let mut jac: Vec<f64> = sys.assemble(model, &mid, Part::Total).iter().map(|v| 0.5 * v).collect();
+                if a1 != 0.0 {
+                    jac.iter_mut().zip(&self.k0).for_each(|(j, k)| *j += a1 * k / dt);
+                }
+                let diag: Vec<f64> = self.mass.iter().map(|m| m * (2.0 / (dt * dt) + a0 / dt)).collect();
+                let factor = factor_shifted(sys, &jac, &diag).ok_or(MotionError::NotConverged {
+                    time: self.time,
+                    residual: rel,
+                })?;
+                self.jacobian = Some((dt, factor));
             }
-            let diag: Vec<f64> = self.mass.iter().map(|m| m * (2.0 / (dt * dt) + a0 / dt)).collect();
-            let delta = solve_shifted(sys, &jac, &diag, &r).ok_or(MotionError::NotConverged {
-                time: self.time,
-                residual: rel,
-            })?;
+            let mut delta = r;
+            if let Some((_, f)) = &self.jacobian {
+                f.solve_in_place(&mut delta);
+            }
             sys.add_scaled(&mut x1, &delta, -1.0);
             if rel <= 1e3 * self.settings.tolerance && norm(&delta) <= 1e-14 * self.length_scale {
                 // Converged to round-off: the residual cannot drop further.
@@ -383,6 +397,7 @@ impl Motion {
         let (a0r, a1r) = self.settings.rayleigh;
         let mut x1 = x0.clone();
         sys.add_scaled(&mut x1, &v0, dt);
+        let mut prev_rel = f64::INFINITY;
         for it in 0..=self.settings.max_iterations {
             let dx = diff(sys, &x1, &x0);
             let acc1: Vec<f64> = (0..n)
@@ -412,20 +427,29 @@ impl Motion {
                     residual: rel,
                 });
             }
-            let mut jac: Vec<f64> = sys.assemble(model, &xa, Part::Total).iter().map(|v| (1.0 - af) * v).collect();
-            if a1r != 0.0 {
-                let c = (1.0 - af) * gamma / (beta * dt) * a1r;
-                jac.iter_mut().zip(&self.k0).for_each(|(j, k)| *j += c * k);
+            let slow = rel > 0.25 * prev_rel;
+            prev_rel = rel;
+            if slow || self.jacobian.as_ref().is_none_or(|(h, _)| *h != dt) {
+                let mut jac: Vec<f64> = sys.assemble(model, &xa, Part::Total).iter().map(|v| (1.0 - af) * v).collect();
+                if a1r != 0.0 {
+                    let c = (1.0 - af) * gamma / (beta * dt) * a1r;
+                    jac.iter_mut().zip(&self.k0).for_each(|(j, k)| *j += c * k);
+                }
+                let diag: Vec<f64> = self
+                    .mass
+                    .iter()
+                    .map(|m| m * ((1.0 - am) / (beta * dt * dt) + (1.0 - af) * gamma / (beta * dt) * a0r))
+                    .collect();
+                let factor = factor_shifted(sys, &jac, &diag).ok_or(MotionError::NotConverged {
+                    time: self.time,
+                    residual: rel,
+                })?;
+                self.jacobian = Some((dt, factor));
             }
-            let diag: Vec<f64> = self
-                .mass
-                .iter()
-                .map(|m| m * ((1.0 - am) / (beta * dt * dt) + (1.0 - af) * gamma / (beta * dt) * a0r))
-                .collect();
-            let delta = solve_shifted(sys, &jac, &diag, &r).ok_or(MotionError::NotConverged {
-                time: self.time,
-                residual: rel,
-            })?;
+            let mut delta = r;
+            if let Some((_, f)) = &self.jacobian {
+                f.solve_in_place(&mut delta);
+            }
             sys.add_scaled(&mut x1, &delta, -1.0);
         }
         unreachable!("loop returns")
@@ -451,17 +475,14 @@ fn member_slack(model: &Model, pos: &[Vec3]) -> Vec<bool> {
         .collect()
 }
 
-/// Solves `(J + diag) δ = r` where `J` is stored in the system's pattern.
-fn solve_shifted(sys: &System, jac: &[f64], diag: &[f64], r: &[f64]) -> Option<Vec<f64>> {
+/// Factorises `J + diag`, with `J` stored in the system's pattern.
+fn factor_shifted(sys: &System, jac: &[f64], diag: &[f64]) -> Option<Factor> {
     let mut values = jac.to_vec();
     sys.add_to_diagonal(&mut values, diag);
-    let f = sys.factor(&values, 0.0).or_else(|| {
+    sys.factor(&values, 0.0).or_else(|| {
         let s = 1e-9 * sys.max_diagonal(&values);
         sys.factor(&values, s)
-    })?;
-    let mut d = r.to_vec();
-    f.solve_in_place(&mut d);
-    Some(d)
+    })
 }
 
 /// Discrete gradient of the strain energy between configurations `x0` and `x1`, on free DOFs,
