@@ -187,3 +187,41 @@ fn switching_units_shows_forces_in_pounds_force() {
     assert_eq!(h.state().settings.units, Units::Us);
     assert!(h.query_all_by_label_contains(" lbf").count() > 0);
 }
+
+#[test]
+fn a_mass_balanced_on_a_pinned_strut_is_reported_and_not_shown_as_an_answer() {
+    use rigwright::gui::EditFn;
+    use rigwright_core::model::{MemberDoc, MemberDocKind, NodeDoc, Rest};
+    let mut h = harness();
+    h.state_mut().queue(Command::New);
+    h.run();
+    let edit: EditFn = Box::new(|p| {
+        p.nodes.push(NodeDoc {
+            id: "ground".into(),
+            at: (0.0, 0.0, 0.0),
+            mass: 0.0,
+            fixed: [true; 3],
+        });
+        p.nodes.push(NodeDoc {
+            id: "top".into(),
+            at: (0.0, 1.0, 0.0),
+            mass: 10.0,
+            fixed: [false; 3],
+        });
+        p.members.push(MemberDoc {
+            id: "rope".into(),
+            ends: ("ground".into(), "top".into()),
+            kind: MemberDocKind::Strut {
+                ea: 1e6,
+                rest: Rest::AsDrawn,
+            },
+            mass_per_length: 0.0,
+        });
+    });
+    h.state_mut().queue(Command::Edit { merge: None, apply: edit });
+    h.run();
+    assert!(h.state().answer().is_none(), "an inverted pendulum is not a usable equilibrium");
+    let d = h.state().diagnostic().expect("a diagnostic is given");
+    assert!(h.query_all_by_label(&d).count() >= 1, "the Readouts show the diagnostic: {d}");
+    assert_eq!(h.query_all_by_label("rope").count(), 0, "no member table is shown");
+}

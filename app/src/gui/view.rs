@@ -492,15 +492,28 @@ fn draw_answer(app: &RigApp, a: &Answer<'_>, painter: &egui::Painter, units: Uni
             if v.length() < 3.0 {
                 continue;
             }
-            // Drawn at the support, pointing the way the support pushes or pulls on the rig.
-            let tail = pos(i) + v.normalized() * 6.0;
+            // Drawn outside the rig: a pull starts at the support, a push ends at it.
+            let inward: Vec2 = model
+                .members
+                .iter()
+                .filter_map(|m| match m.ends {
+                    [a, b] if a == i => Some(b),
+                    [a, b] if b == i => Some(a),
+                    _ => None,
+                })
+                .map(|o| (pos(o) - pos(i)).normalized())
+                .fold(Vec2::ZERO, |acc, d| acc + d);
+            let u = v.normalized();
+            let (tail, label_at) = if inward.dot(u) > 0.0 {
+                let tip = pos(i) - u * 6.0;
+                (tip - v, tip - v - u * 22.0)
+            } else {
+                let tail = pos(i) + u * 6.0;
+                (tail, tail + v + u * 22.0)
+            };
             painter.arrow(tail, v, Stroke::new(2.0, pal::REACTION));
             if labels {
-                texts.push((
-                    tail + v + v.normalized() * 22.0,
-                    units.show(Quantity::Force, r.norm()),
-                    pal::REACTION,
-                ));
+                texts.push((label_at, units.show(Quantity::Force, r.norm()), pal::REACTION));
             }
         }
     }
