@@ -92,13 +92,17 @@ pub fn modes(statics: &Statics, eq: &Equilibrium, count: usize) -> Result<Modes,
     let count = count.min(massive.len());
     let sqrt_m: Vec<f64> = mass.iter().map(|m| m.sqrt()).collect();
     // B y = M^½ K⁻¹ M^½ y, with y living on the massive DOFs only.
-    let apply = |y: &[f64]| -> Vec<f64> {
-        let mut full = vec![0.0; n];
+    // B Y for a block Y (columns on the massive DOFs), one multi-column solve.
+    let apply = |y: &DMatrix<f64>| -> DMatrix<f64> {
+        let c = y.ncols();
+        let mut full = DMatrix::zeros(n, c);
         for (j, &i) in massive.iter().enumerate() {
-            full[i] = sqrt_m[i] * y[j];
+            for col in 0..c {
+                full[(i, col)] = sqrt_m[i] * y[(j, col)];
+            }
         }
-        factor.solve_in_place(&mut full);
-        massive.iter().map(|&i| sqrt_m[i] * full[i]).collect()
+        factor.solve_columns_in_place(full.as_mut_slice(), c);
+        DMatrix::from_fn(massive.len(), c, |j, col| sqrt_m[massive[j]] * full[(massive[j], col)])
     };
     let pairs = if massive.len() <= DENSE_LIMIT {
         dense_pairs(&apply, massive.len(), count)
@@ -151,15 +155,8 @@ fn shape_from(factor: &Factor, massive: &[usize], sqrt_m: &[f64], n: usize, y: &
 }
 
 /// All eigenpairs of the dense `B`, largest first, keeping `count`.
-fn dense_pairs(apply: &dyn Fn(&[f64]) -> Vec<f64>, m: usize, count: usize) -> Vec<(f64, Vec<f64>)> {
-    let mut b = DMatrix::zeros(m, m);
-    let mut e = vec![0.0; m];
-    for j in 0..m {
-        e[j] = 1.0;
-        let col = apply(&e);
-        e[j] = 0.0;
-        b.set_column(j, &DVector::from_vec(col));
-    }
+fn dense_pairs(apply: &dyn Fn(&DMatrix<f64>) -> DMatrix<f64>, m: usize, count: usize) -> Vec<(f64, Vec<f64>)> {
+    let b = apply(&DMatrix::identity(m, m));
     let b = (&b + b.transpose()) * 0.5;
     let eig = SymmetricEigen::new(b);
     let mut idx: Vec<usize> = (0..m).collect();
@@ -172,76 +169,72 @@ fn dense_pairs(apply: &dyn Fn(&[f64]) -> Vec<f64>, m: usize, count: usize) -> Ve
 
 /// Largest `count` eigenpairs of `B` by block Lanczos with full reorthogonalisation.
 ///
-/// The Krylov basis grows one block at a time; from a minimum size on, the Ritz pairs are
-/// checked every few blocks and the iteration stops as soon as the wanted ones have converged:
-/// ‖B x − θ x‖ = ‖β_last s_last‖ ≤ 1e-9 θ_max (Golub & Van Loan §10.3).
-fn lanczos_pairs(apply: &dyn Fn(&[f64]) -> Vec<f64>, m: usize, count: usize) -> Result<Vec<(f64, Vec<f64>)>, ModeError> {
+/// The Krylov basis `V` grows one block at a time; from a minimum size on, the Ritz pairs are
+/// checked every other block and the iteration stops as soon as the wanted ones have
+/// converged: ‖B x − θ x‖ = ‖β_last s_last‖ ≤ 1e-9 θ_max (Golub & Van Loan §10.3).
+fn lanczos_pairs(apply: &dyn Fn(&DMatrix<f64>) -> DMatrix<f64>, m: usize, count: usize) -> Result<Vec<(f64, Vec<f64>)>, ModeError> {
     let b = BLOCK.min(m);
-    let max_blocks = (m / b).max(1);
+    let max_blocks = (m / b).max(1).min(400);
     let min_blocks = ((count + 8) / b + 2).min(max_blocks);
     // Deterministic, well-spread start block.
     let start = DMatrix::from_fn(m, b, |i, j| (((i + 1) * (j + 3) * 2654435761usize) % 1000) as f64 / 1000.0 - 0.5);
-    let mut q = qr_block(start).0;
-    let mut basis: Vec<DMatrix<f64>> = vec![q.clone()];
-    let mut t = DMatrix::zeros(max_blocks * b, max_blocks * b);
+    // Basis and block-tridiagonal matrix grow as needed (doubling).
+    let mut v = DMatrix::zeros(m, 2 * min_blocks * b);
+    v.columns_mut(0, b).copy_from(&qr_block(start).0);
+    let mut t = DMatrix::zeros(2 * min_blocks * b, 2 * min_blocks * b);
     let mut beta_prev: Option<DMatrix<f64>> = None;
     let mut unconverged = count;
     for k in 0..max_blocks {
-        let mut w = DMatrix::zeros(m, b);
-        for j in 0..b {
-            let col: Vec<f64> = q.column(j).iter().copied().collect();
-            w.set_column(j, &DVector::from_vec(apply(&col)));
-        }
-        if let (Some(bp), Some(qp)) = (&beta_prev, k.checked_sub(1).map(|p| &basis[p])) {
-            w -= qp * bp.transpose();
+        let q = v.columns(k * b, b).into_owned();
+        let mut w = apply(&q);
+        if let Some(bp) = &beta_prev {
+            w -= v.columns((k - 1) * b, b) * bp.transpose();
         }
         let a = q.transpose() * &w;
         w -= &q * &a;
-        // Full reorthogonalisation, twice.
+        // Full reorthogonalisation against the whole basis, twice.
+        let basis = v.columns(0, (k + 1) * b);
         for _ in 0..2 {
-            for qb in &basis {
-                let c = qb.transpose() * &w;
-                w -= qb * c;
-            }
+            let c = basis.transpose() * &w;
+            w -= basis * c;
         }
         let a = (&a + a.transpose()) * 0.5;
         t.view_mut((k * b, k * b), (b, b)).copy_from(&a);
         let (qn, beta) = qr_block(w);
         let used = k + 1;
-        if used >= min_blocks && (used % 3 == 0 || used == max_blocks) {
-            let (pairs, left) = ritz_pairs(&t, &basis, &beta, used, b, m, count);
+        if used >= min_blocks && (used % 2 == 0 || used == max_blocks) {
+            let (pairs, left) = ritz_pairs(&t, &v, &beta, used * b, b, count);
             unconverged = left;
-            if left == 0 || used == max_blocks {
-                if left == 0 {
-                    return Ok(pairs);
-                }
-                break;
+            if left == 0 {
+                return Ok(pairs);
             }
         }
         if used == max_blocks {
             break;
         }
+        if (k + 2) * b > v.ncols() {
+            let cols = (2 * v.ncols()).min(max_blocks * b);
+            v = v.resize_horizontally(cols, 0.0);
+            t = t.resize(cols, cols, 0.0);
+        }
         t.view_mut(((k + 1) * b, k * b), (b, b)).copy_from(&beta);
         t.view_mut((k * b, (k + 1) * b), (b, b)).copy_from(&beta.transpose());
         beta_prev = Some(beta);
-        q = qn;
-        basis.push(q.clone());
+        v.columns_mut((k + 1) * b, b).copy_from(&qn);
     }
     Err(ModeError::NotConverged(unconverged))
 }
 
-/// Ritz pairs from the first `used` blocks, largest first, and how many of the first `count`
-/// have not converged.
+/// Ritz pairs from the first `dim` basis vectors, largest first, and how many of the first
+/// `count` have not converged.
 fn ritz_pairs(
     t: &DMatrix<f64>,
-    basis: &[DMatrix<f64>],
+    v: &DMatrix<f64>,
     last_beta: &DMatrix<f64>,
-    used: usize,
+    dim: usize,
     b: usize,
-    m: usize,
     count: usize,
 ) -> (Vec<(f64, Vec<f64>)>, usize) {
-    let dim = used * b;
     let eig = SymmetricEigen::new(t.view((0, 0), (dim, dim)).into_owned());
     let mut idx: Vec<usize> = (0..dim).collect();
     idx.sort_by(|&i, &j| eig.eigenvalues[j].total_cmp(&eig.eigenvalues[i]));
@@ -254,10 +247,7 @@ fn ritz_pairs(
         if (last_beta * tail).norm() > 1e-9 * top {
             unconverged += 1;
         }
-        let mut y = DVector::zeros(m);
-        for (kb, qb) in basis.iter().enumerate().take(used) {
-            y += qb * s.rows(kb * b, b);
-        }
+        let y = v.columns(0, dim) * s;
         let nrm = y.norm();
         pairs.push((eig.eigenvalues[i], (y / nrm).iter().copied().collect()));
     }

@@ -101,6 +101,13 @@ impl Factor {
         let mat = faer::MatMut::from_column_major_slice_mut(b, n, 1);
         self.llt.solve_in_place(mat);
     }
+
+    /// Solves for `ncols` right-hand sides stored column-major in `b`, in place.
+    pub fn solve_columns_in_place(&self, b: &mut [f64], ncols: usize) {
+        let n = b.len() / ncols.max(1);
+        let mat = faer::MatMut::from_column_major_slice_mut(b, n, ncols);
+        self.llt.solve_in_place(mat);
+    }
 }
 
 /// Values assembled at one configuration.
