@@ -13,7 +13,7 @@
 //! symmetric rigs, which a single-vector iteration can miss, and every Ritz pair is returned
 //! only once its residual passes a convergence test.
 
-use nalgebra::{DMatrix, DVector, SymmetricEigen};
+use nalgebra::{DMatrix, SymmetricEigen};
 use serde::Serialize;
 
 use crate::model::Vec3;
@@ -174,7 +174,7 @@ fn dense_pairs(apply: &dyn Fn(&DMatrix<f64>) -> DMatrix<f64>, m: usize, count: u
 /// converged: ‖B x − θ x‖ = ‖β_last s_last‖ ≤ 1e-9 θ_max (Golub & Van Loan §10.3).
 fn lanczos_pairs(apply: &dyn Fn(&DMatrix<f64>) -> DMatrix<f64>, m: usize, count: usize) -> Result<Vec<(f64, Vec<f64>)>, ModeError> {
     let b = BLOCK.min(m);
-    let max_blocks = (m / b).max(1).min(400);
+    let max_blocks = (m / b).clamp(1, 400);
     let min_blocks = ((count + 8) / b + 2).min(max_blocks);
     // Deterministic, well-spread start block.
     let start = DMatrix::from_fn(m, b, |i, j| (((i + 1) * (j + 3) * 2654435761usize) % 1000) as f64 / 1000.0 - 0.5);
