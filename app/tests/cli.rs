@@ -9,7 +9,11 @@ fn sample(name: &str) -> PathBuf {
 
 fn rigwright(args: &[&str]) -> (i32, String, String) {
     let out = Command::new(env!("CARGO_BIN_EXE_rigwright")).args(args).output().expect("runs");
-    (out.status.code().unwrap_or(-1), String::from_utf8_lossy(&out.stdout).into_owned(), String::from_utf8_lossy(&out.stderr).into_owned())
+    (
+        out.status.code().unwrap_or(-1),
+        String::from_utf8_lossy(&out.stdout).into_owned(),
+        String::from_utf8_lossy(&out.stderr).into_owned(),
+    )
 }
 
 #[test]
@@ -114,15 +118,37 @@ fn pluck_reports_frequency_energy_and_writes_csv() {
     std::fs::create_dir_all(&dir).unwrap();
     let csv = dir.join("h.csv");
     let file = sample("lamp-counterbalance.rig.ron");
-    let (code, out, err) =
-        rigwright(&["pluck", file.to_str().unwrap(), "--node", "carriage", "--offset", "0,-0.02", "--duration", "3", "--csv", csv.to_str().unwrap()]);
+    let (code, out, err) = rigwright(&[
+        "pluck",
+        file.to_str().unwrap(),
+        "--node",
+        "carriage",
+        "--offset",
+        "0,-0.02",
+        "--duration",
+        "3",
+        "--csv",
+        csv.to_str().unwrap(),
+    ]);
     assert_eq!(code, 0, "{err}");
     assert!(out.contains("dominant frequency") && out.contains("Hz"), "{out}");
     let text = std::fs::read_to_string(&csv).unwrap();
     let header = text.lines().next().unwrap();
-    assert_eq!(header, "time_s,ux_m,uy_m,uz_m,balancer_force_N,safety_force_N,kinetic_J,strain_J,load_potential_J,damped_J,numerical_J");
+    assert_eq!(
+        header,
+        "time_s,ux_m,uy_m,uz_m,balancer_force_N,safety_force_N,kinetic_J,strain_J,load_potential_J,damped_J,numerical_J"
+    );
     assert!(text.lines().count() > 100);
-    let (code, _, err) = rigwright(&["pluck", file.to_str().unwrap(), "--node", "nowhere", "--offset", "0,-0.02", "--duration", "1"]);
+    let (code, _, err) = rigwright(&[
+        "pluck",
+        file.to_str().unwrap(),
+        "--node",
+        "nowhere",
+        "--offset",
+        "0,-0.02",
+        "--duration",
+        "1",
+    ]);
     assert_eq!(code, 2);
     assert!(err.contains("`nowhere`"));
     std::fs::remove_dir_all(&dir).ok();

@@ -9,6 +9,7 @@ use std::process::ExitCode;
 use clap::{Parser, Subcommand};
 use rigwright_core::{Equilibrium, Model, Project, SolveError, Statics};
 
+mod dynamics;
 mod report;
 
 /// Exit code for bad input.
@@ -43,6 +44,68 @@ pub enum Command {
         #[arg(long)]
         stiffness: Option<String>,
     },
+    /// Natural frequencies and mode shapes about the equilibrium of a load case.
+    Modes {
+        /// Project file (*.rig.ron).
+        file: PathBuf,
+        /// Load case name (default: the first case).
+        #[arg(long)]
+        case: Option<String>,
+        /// Number of modes (lowest first).
+        #[arg(long, default_value_t = 6)]
+        count: usize,
+        /// Print one JSON document (SI units).
+        #[arg(long)]
+        json: bool,
+    },
+    /// Pull a node, release it and follow the nonlinear free vibration.
+    Pluck {
+        /// Project file (*.rig.ron).
+        file: PathBuf,
+        /// Node to pull.
+        #[arg(long)]
+        node: String,
+        /// Pull offset in metres, "DX,DY" or "DX,DY,DZ".
+        #[arg(long, allow_hyphen_values = true)]
+        offset: String,
+        /// Time to follow (s).
+        #[arg(long)]
+        duration: f64,
+        /// Time step (s); default 1/200 of the lowest natural period, at most 1 ms.
+        #[arg(long)]
+        dt: Option<f64>,
+        /// Damping ratio at the two lowest natural frequencies (Rayleigh), e.g. 0.02.
+        #[arg(long)]
+        damping: Option<f64>,
+        /// Numerical dissipation: generalized-α with this spectral radius (0–1) instead of
+        /// the energy-conserving scheme.
+        #[arg(long)]
+        rho_inf: Option<f64>,
+        /// Also pluck at this many growing amplitudes up to the offset (backbone curve).
+        #[arg(long)]
+        backbone: Option<usize>,
+        /// Load case name (default: the first case).
+        #[arg(long)]
+        case: Option<String>,
+        /// Write the time histories to this CSV file.
+        #[arg(long)]
+        csv: Option<PathBuf>,
+        /// Print one JSON document (SI units) with the histories.
+        #[arg(long)]
+        json: bool,
+    },
+}
+
+/// Parses "DX,DY" or "DX,DY,DZ" (m).
+fn parse_offset(text: &str) -> Result<rigwright_core::Vec3, Failure> {
+    let parts: Result<Vec<f64>, _> = text.split(',').map(|p| p.trim().parse::<f64>()).collect();
+    match parts.as_deref() {
+        Ok([x, y]) => Ok(rigwright_core::Vec3::new(*x, *y, 0.0)),
+        Ok([x, y, z]) => Ok(rigwright_core::Vec3::new(*x, *y, *z)),
+        _ => Err(Failure::input(format!(
+            "offset `{text}`: write two or three numbers in metres separated by commas, e.g. 0,-0.05"
+        ))),
+    }
 }
 
 /// Runs the command line and returns the process exit code: with a subcommand it runs
@@ -113,6 +176,49 @@ fn case_list(model: &Model) -> String {
 /// Runs one subcommand.
 pub fn run(command: Command) -> Result<(), Failure> {
     match command {
+        Command::Modes { file, case, count, json } => {
+            let (_, model) = load(&file)?;
+            let case = case_index(&model, case.as_deref())?;
+            print!("{}", dynamics::modes_command(&model, case, count, json)?);
+            if json {
+                println!();
+            }
+            Ok(())
+        }
+        Command::Pluck {
+            file,
+            node,
+            offset,
+            duration,
+            dt,
+            damping,
+            rho_inf,
+            backbone,
+            case,
+            csv,
+            json,
+        } => {
+            let (_, model) = load(&file)?;
+            let case = case_index(&model, case.as_deref())?;
+            let offset = parse_offset(&offset)?;
+            let args = dynamics::PluckArgs {
+                case,
+                node: &node,
+                offset,
+                duration,
+                dt,
+                damping,
+                rho_inf,
+                backbone,
+                csv: csv.as_deref(),
+                json,
+            };
+            print!("{}", dynamics::pluck_command(&model, &args)?);
+            if json {
+                println!();
+            }
+            Ok(())
+        }
         Command::Solve {
             file,
             case,
