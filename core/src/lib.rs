@@ -16,6 +16,7 @@ pub mod dynamics;
 pub mod element;
 pub mod gallery;
 pub mod model;
+pub mod sizing;
 pub mod solve;
 
 pub use element::{MemberKind, MemberState};
