@@ -191,6 +191,8 @@ pub enum Command {
     Discard,
     /// The user cancelled the pending command.
     KeepEditing,
+    /// Close the window (asks first when there are unsaved changes).
+    Close,
 }
 
 /// A Pull in progress (or the last one, kept for its plot).
@@ -253,6 +255,8 @@ pub struct RigApp {
     /// Generation of the last outcome applied.
     applied: u64,
     title: String,
+    /// The window may close now (changes saved or discarded).
+    close_now: bool,
 }
 
 #[derive(Clone, PartialEq)]
@@ -301,6 +305,7 @@ impl RigApp {
             requested: None,
             applied: 0,
             title: String::new(),
+            close_now: false,
         };
         let opened = match file.or_else(|| app.settings.last_file.clone()) {
             Some(path) => app.open_path(&path).is_ok(),
@@ -513,6 +518,7 @@ impl RigApp {
                 }
             }
             Command::KeepEditing => self.pending_discard = None,
+            Command::Close => self.close_now = true,
         }
     }
 
@@ -824,6 +830,10 @@ impl eframe::App for RigApp {
         for path in dropped {
             self.commands.push(Command::Open(path));
         }
+        if ctx.input(|i| i.viewport().close_requested()) && !self.close_now && self.doc.dirty {
+            ctx.send_viewport_cmd(egui::ViewportCommand::CancelClose);
+            self.commands.push(Command::Close);
+        }
 
         egui::Panel::top("menu").show(ui, |ui| menus::menu_bar(self, ui));
         egui::Panel::top("tools").show(ui, |ui| menus::toolbar(self, ui));
@@ -855,6 +865,9 @@ impl eframe::App for RigApp {
             ctx.request_repaint();
         }
         self.update_title(&ctx);
+        if self.close_now {
+            ctx.send_viewport_cmd(egui::ViewportCommand::Close);
+        }
     }
 
     fn save(&mut self, storage: &mut dyn eframe::Storage) {

@@ -540,9 +540,21 @@ fn draw_answer(app: &RigApp, a: &Answer<'_>, painter: &egui::Painter, units: Uni
     draw_stiffness(app, a, painter, units, &mut texts);
     draw_pull(app, a, painter, units, &mut texts);
 
+    // Labels that would land on an earlier one (members seen edge-on in a projection) are
+    // stacked below it, so none hides another.
     let inside = view.rect.shrink(30.0);
+    let mut placed: Vec<Rect> = Vec::new();
     for (p, t, c) in texts {
-        label(painter, p.clamp(inside.min, inside.max), &t, c);
+        let mut at = p.clamp(inside.min, inside.max);
+        for _ in 0..6 {
+            let r = Rect::from_center_size(at, vec2(7.0 * t.chars().count() as f32, 14.0));
+            if !placed.iter().any(|q| q.intersects(r)) {
+                placed.push(r);
+                break;
+            }
+            at.y += 15.0;
+        }
+        label(painter, at, &t, c);
     }
 }
 
