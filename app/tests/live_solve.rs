@@ -41,3 +41,34 @@ fn dragging_an_anchor_of_the_canopy_net_resolves_every_step() {
     app.apply_commands();
     assert_eq!(app.doc.project.nodes[anchor].at.1, y0);
 }
+
+#[test]
+fn a_large_net_solves_on_the_worker_thread_without_blocking_the_frame() {
+    use std::time::{Duration, Instant};
+    let ctx = egui::Context::default();
+    let mut app = RigApp::with_settings(&ctx, Settings::default(), None);
+    let dir = std::env::temp_dir().join(format!("rigwright-large-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let path = dir.join("net.rig.ron");
+    let net = rigwright_core::gallery::cable_net(24, 1.0, 5.0e6, 5000.0, 4.0);
+    std::fs::write(&path, net.to_ron()).unwrap();
+    app.queue(Command::Open(path));
+    app.apply_commands();
+    let start = Instant::now();
+    app.solve_if_needed();
+    let queued = start.elapsed();
+    assert!(app.solver_busy(), "a rig this size goes to the worker");
+    let deadline = Instant::now() + Duration::from_secs(60);
+    while app.answer().is_none() && Instant::now() < deadline {
+        std::thread::sleep(Duration::from_millis(5));
+        app.solve_if_needed();
+    }
+    assert!(app.answer().is_some(), "{:?}", app.diagnostic());
+    println!(
+        "24×24 net ({} nodes): the frame spent {:.2} ms sending the request; the worker solved it in {:.1} ms",
+        app.doc.model.nodes.len(),
+        queued.as_secs_f64() * 1e3,
+        app.solve_times.last().copied().unwrap_or(f64::NAN)
+    );
+    std::fs::remove_dir_all(&dir).ok();
+}
