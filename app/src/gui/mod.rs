@@ -377,6 +377,9 @@ impl RigApp {
     }
 
     fn open_path(&mut self, path: &Path) -> Result<(), String> {
+        // Absolute, so the next start finds it from any working directory.
+        let absolute = std::fs::canonicalize(path).unwrap_or_else(|_| path.to_path_buf());
+        let path = absolute.as_path();
         let result = Project::load(path)
             .map_err(|e| e.to_string())
             .and_then(|p| Document::open(p, Some(path.to_path_buf())));
@@ -868,6 +871,11 @@ impl eframe::App for RigApp {
         if self.close_now {
             ctx.send_viewport_cmd(egui::ViewportCommand::Close);
         }
+    }
+
+    /// Settings (last project, recent files, units) are small: keep them fresh.
+    fn auto_save_interval(&self) -> std::time::Duration {
+        std::time::Duration::from_secs(5)
     }
 
     fn save(&mut self, storage: &mut dyn eframe::Storage) {
