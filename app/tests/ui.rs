@@ -127,9 +127,43 @@ fn pulling_a_node_shows_a_restoring_force_that_grows_with_the_pull() {
     );
     assert!(texts[1].contains(" N"), "{}", texts[1]);
     h.drop_at(start + egui::vec2(36.0, 0.0));
-    h.run();
+    // Letting go starts a Pluck, which keeps repainting: step frames instead of settling.
+    h.run_steps(6);
     assert!(!h.state().pull.as_ref().unwrap().active);
     assert!(h.state().answer().is_some(), "after release the rig is solved again");
+    let t0 = h.state().pluck.as_ref().expect("letting go starts a Pluck").motion.time();
+    h.run_steps(20);
+    let p = h.state().pluck.as_ref().expect("the Pluck keeps running");
+    assert!(p.motion.time() > t0, "the rig moves in time");
+    assert!(p.history.len() > 2);
+    assert!(p.failure.is_none(), "{:?}", p.failure);
+    // Pause stops the clock.
+    h.get_by_role_and_label(egui::accesskit::Role::Button, "Pause").click();
+    h.run_steps(2);
+    let paused = h.state().pluck.as_ref().unwrap().motion.time();
+    h.run_steps(5);
+    assert_eq!(h.state().pluck.as_ref().unwrap().motion.time(), paused);
+}
+
+#[test]
+fn the_modes_tab_lists_the_natural_frequencies_of_the_equilibrium() {
+    let mut h = harness();
+    h.get_by_label("Modes").click();
+    h.run();
+    let expected = {
+        let a = h.state().answer().expect("the sample solves");
+        let statics = rigwright_core::Statics::new(a.model);
+        let ms = rigwright_core::dynamics::modes(&statics, a.eq, 2).unwrap();
+        format!("{:.4}", ms.modes[0].frequency_hz)
+    };
+    assert!(
+        h.query_by_label(&expected).is_some(),
+        "the lowest frequency {expected} Hz is listed"
+    );
+    // Animating a mode keeps the view moving.
+    h.get_all_by_label("Animate").next().expect("an Animate button per mode").click();
+    h.run_steps(3);
+    assert_eq!(h.state().modes.as_ref().unwrap().animate, Some(0));
 }
 
 #[test]

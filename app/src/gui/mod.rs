@@ -8,6 +8,7 @@ mod about;
 mod document;
 mod menus;
 mod palette;
+mod pluck;
 mod properties;
 mod readouts;
 pub mod samples;
@@ -191,6 +192,8 @@ pub enum Command {
     Discard,
     /// The user cancelled the pending command.
     KeepEditing,
+    /// Let go of the pulled node: start a Pluck from the held shape.
+    Pluck,
     /// Close the window (asks first when there are unsaved changes).
     Close,
 }
@@ -240,6 +243,12 @@ pub struct RigApp {
     /// The last unheld solve outcome (the answer shown).
     pub solved: Option<SolveOutcome>,
     pub pull: Option<PullSession>,
+    /// The rig vibrating after a Pull was let go.
+    pub pluck: Option<pluck::PluckSession>,
+    /// Natural modes of the current answer (computed when the Modes tab is shown).
+    pub modes: Option<pluck::ModesState>,
+    /// Start a Pluck when a pulled node is let go.
+    pub pluck_on_release: bool,
     /// A message for the status bar: (text, is an error).
     pub message: Option<(String, bool)>,
     pub show_about: bool,
@@ -295,6 +304,9 @@ impl RigApp {
             readout_tab: ReadoutTab::Members,
             solved: None,
             pull: None,
+            pluck: None,
+            modes: None,
+            pluck_on_release: true,
             message: None,
             show_about: false,
             show_help: false,
@@ -522,6 +534,7 @@ impl RigApp {
             }
             Command::KeepEditing => self.pending_discard = None,
             Command::Close => self.close_now = true,
+            Command::Pluck => self.start_pluck(),
         }
     }
 
@@ -665,6 +678,39 @@ impl RigApp {
         }
     }
 
+    /// Starts a Pluck from the held shape of the Pull that was just let go.
+    fn start_pluck(&mut self) {
+        let Some(pull) = self.pull.as_ref() else { return };
+        let Some(held) = self.solved.as_ref().filter(|o| Arc::ptr_eq(&o.model, &pull.model)) else {
+            return;
+        };
+        let Ok(held_eq) = held.result.as_ref() else { return };
+        if held_eq.hold.is_none() || !held_eq.stability.is_stable() {
+            return;
+        }
+        let model = pull.model.clone();
+        let start = held_eq.positions();
+        let statics = rigwright_core::Statics::new(&model);
+        let about = match statics.solve(self.case, Some(&start)) {
+            Ok(eq) if eq.stability.is_stable() => eq,
+            Ok(eq) => {
+                self.message = Some((format!("Pluck: {}", eq.stability.describe()), true));
+                return;
+            }
+            Err(e) => {
+                self.message = Some((format!("Pluck: {e}"), true));
+                return;
+            }
+        };
+        match pluck::PluckSession::start(model, self.case, &about, start, pull.node) {
+            Ok(session) => {
+                self.pluck = Some(session);
+                self.readout_tab = ReadoutTab::Pluck;
+            }
+            Err(e) => self.message = Some((format!("Pluck: {e}"), true)),
+        }
+    }
+
     /// Starts a Pull on model node `node` from the current answer.
     pub fn start_pull(&mut self, node: usize) -> bool {
         let Some(a) = self.answer() else { return false };
@@ -689,6 +735,7 @@ impl RigApp {
             failure: None,
             active: true,
         });
+        self.pluck = None;
         self.readout_tab = ReadoutTab::Pull;
         true
     }
@@ -822,6 +869,10 @@ impl eframe::App for RigApp {
             self.take_outcome(o);
         }
         self.shortcuts(&ctx);
+        let wall = f64::from(ctx.input(|i| i.stable_dt));
+        if pluck::tick(self, wall) {
+            ctx.request_repaint();
+        }
         let dropped: Vec<PathBuf> = ctx.input(|i| {
             i.raw
                 .dropped_files

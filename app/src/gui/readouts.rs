@@ -19,10 +19,19 @@ pub enum ReadoutTab {
     Nodes,
     Stiffness,
     Pull,
+    Modes,
+    Pluck,
 }
 
 impl ReadoutTab {
-    pub const ALL: [ReadoutTab; 4] = [ReadoutTab::Members, ReadoutTab::Nodes, ReadoutTab::Stiffness, ReadoutTab::Pull];
+    pub const ALL: [ReadoutTab; 6] = [
+        ReadoutTab::Members,
+        ReadoutTab::Nodes,
+        ReadoutTab::Stiffness,
+        ReadoutTab::Pull,
+        ReadoutTab::Modes,
+        ReadoutTab::Pluck,
+    ];
 
     pub fn label(self) -> &'static str {
         match self {
@@ -30,6 +39,8 @@ impl ReadoutTab {
             ReadoutTab::Nodes => "Nodes",
             ReadoutTab::Stiffness => "Stiffness",
             ReadoutTab::Pull => "Pull curve",
+            ReadoutTab::Modes => "Modes",
+            ReadoutTab::Pluck => "Pluck",
         }
     }
 
@@ -39,6 +50,8 @@ impl ReadoutTab {
             ReadoutTab::Nodes => "Displacement of every node and reactions at supports",
             ReadoutTab::Stiffness => "Condensed tangent stiffness of the selected free node",
             ReadoutTab::Pull => "Restoring force and force–displacement curve of the last Pull",
+            ReadoutTab::Modes => "Natural frequencies and mode shapes about the equilibrium; animate any mode",
+            ReadoutTab::Pluck => "The free vibration after a pulled node is let go: time history, frequency, energy",
         }
     }
 }
@@ -63,9 +76,11 @@ pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
         }
     });
     ui.separator();
-    if app.readout_tab == ReadoutTab::Pull {
-        pull(app, ui);
-        return;
+    match app.readout_tab {
+        ReadoutTab::Pull => return pull(app, ui),
+        ReadoutTab::Pluck => return super::pluck::pluck_ui(app, ui),
+        ReadoutTab::Modes => return super::pluck::modes_ui(app, ui),
+        _ => {}
     }
     let Some(answer) = app.answer() else {
         match app.diagnostic() {
@@ -81,7 +96,7 @@ pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
             ReadoutTab::Members => members(&answer, units, ui),
             ReadoutTab::Nodes => nodes(&answer, units, ui),
             ReadoutTab::Stiffness => stiffness(app, units, ui),
-            ReadoutTab::Pull => {}
+            ReadoutTab::Pull | ReadoutTab::Modes | ReadoutTab::Pluck => {}
         });
 }
 

@@ -290,7 +290,9 @@ pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
     {
         banners.push((format!("Pull: no equilibrium with `{}` held here — {f}", pull.node_id), pal::ALARM));
     }
-    if let Some(a) = app.answer() {
+    if let Some((positions, forces)) = super::pluck::moving_positions(app) {
+        super::pluck::draw_moving(app, &painter, &positions, forces.as_deref());
+    } else if let Some(a) = app.answer() {
         draw_answer(app, &a, &painter, units);
     }
     draw_member_start(app, &painter);
@@ -961,6 +963,9 @@ fn interact(app: &mut RigApp, ui: &egui::Ui, response: &egui::Response) {
             Drag::Pull => {
                 if let Some(p) = app.pull.as_mut() {
                     p.active = false;
+                    if app.pluck_on_release {
+                        app.queue(Command::Pluck);
+                    }
                 }
             }
             _ => {}
