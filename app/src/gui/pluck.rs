@@ -48,6 +48,8 @@ pub struct PluckSession {
     pub failure: Option<String>,
     /// Energy error relative to the energy in play.
     pub energy_error: f64,
+    /// Rig time of the last spectrum (s).
+    spectrum_at: f64,
 }
 
 impl PluckSession {
@@ -81,6 +83,7 @@ impl PluckSession {
             dominant_hz: None,
             failure: None,
             energy_error: 0.0,
+            spectrum_at: 0.0,
         };
         s.sample();
         Ok(s)
@@ -123,7 +126,9 @@ impl PluckSession {
             }
         }
         let n = self.history.len();
-        if n > 64 && n % 32 == 0 {
+        // Refresh the spectrum about twice a second of rig time.
+        if n > 64 && self.motion.time() - self.spectrum_at >= 0.5 {
+            self.spectrum_at = self.motion.time();
             let s: Vec<f64> = self.history.iter().map(|h| h[1]).collect();
             let dt_s = (self.history[n - 1][0] - self.history[0][0]) / (n - 1) as f64;
             self.dominant_hz = spectrum(&s, dt_s).dominant;
