@@ -17,6 +17,15 @@ pub fn rel(a: f64, b: f64) -> f64 {
     (a - b).abs() / b.abs()
 }
 
+/// The sample projects shipped in `sample-projects/`.
+pub const SAMPLES: [&str; 5] = [
+    "sign-on-two-cables.rig.ron",
+    "lamp-counterbalance.rig.ron",
+    "guyed-pole.rig.ron",
+    "canopy-net-6x6.rig.ron",
+    "machine-on-four-springs.rig.ron",
+];
+
 /// Path of a sample project, from the tests crate.
 pub fn sample(name: &str) -> std::path::PathBuf {
     std::path::Path::new(env!("CARGO_MANIFEST_DIR"))

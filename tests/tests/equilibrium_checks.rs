@@ -4,15 +4,7 @@
 
 use rigwright_core::solve::system::Part;
 use rigwright_core::{Project, Statics, Vec3};
-use rigwright_verification::sample;
-
-const SAMPLES: [&str; 5] = [
-    "sign-on-two-cables.rig.ron",
-    "lamp-counterbalance.rig.ron",
-    "guyed-pole.rig.ron",
-    "canopy-net-6x6.rig.ron",
-    "machine-on-four-springs.rig.ron",
-];
+use rigwright_verification::{SAMPLES, sample};
 
 #[test]
 fn reactions_balance_applied_loads_in_every_sample_and_case() {

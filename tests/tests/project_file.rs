@@ -4,15 +4,7 @@
 
 use rigwright_core::gallery::cable_net;
 use rigwright_core::{Project, Statics};
-use rigwright_verification::sample;
-
-const SAMPLES: [&str; 5] = [
-    "sign-on-two-cables.rig.ron",
-    "lamp-counterbalance.rig.ron",
-    "guyed-pole.rig.ron",
-    "canopy-net-6x6.rig.ron",
-    "machine-on-four-springs.rig.ron",
-];
+use rigwright_verification::{SAMPLES, sample};
 
 fn net_sample() -> Project {
     let mut p = cable_net(8, 1.25, 4.0e6, 6000.0, 6.0);

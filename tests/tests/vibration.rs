@@ -112,14 +112,9 @@ fn repeated_frequency_pairs_of_a_3d_string_are_all_found_by_the_sparse_eigensolv
     }
 }
 
-/// Mass on a vertical spring (linear: the spring stays vertical). The energy-conserving rule
-/// is the average-acceleration Newmark rule on a linear system, which keeps energy exactly
-/// and lengthens the period by T̄/T = Ω/(2 atan(Ω/2)), Ω = ωΔt (Hughes, *The Finite Element
-/// Method*, ch. 9, from memory; Ω = 0.5 → 1.020497, calc).
-#[test]
-fn linear_oscillator_conserves_energy_and_shows_the_newmark_period_elongation() {
-    let (k, mass): (f64, f64) = (4000.0, 10.0);
-    let omega = (k / mass).sqrt();
+/// A mass `mass` (kg) guided vertically under a spring of rate `k` (N/m), no gravity: the
+/// model, its equilibrium positions and a start pulled down by `pull` (m).
+fn vertical_oscillator(k: f64, mass: f64, pull: f64) -> (Model, Vec<Vec3>, Vec<Vec3>) {
     let mut p = Project::new("oscillator");
     p.gravity = (0.0, 0.0, 0.0);
     p.nodes = vec![
@@ -135,7 +130,19 @@ fn linear_oscillator_conserves_energy_and_shows_the_newmark_period_elongation() 
     let m = model(&p);
     let about: Vec<Vec3> = m.nodes.iter().map(|n| n.position).collect();
     let mut start = about.clone();
-    start[1].y -= 0.05;
+    start[1].y -= pull;
+    (m, about, start)
+}
+
+/// Mass on a vertical spring (linear: the spring stays vertical). The energy-conserving rule
+/// is the average-acceleration Newmark rule on a linear system, which keeps energy exactly
+/// and lengthens the period by T̄/T = Ω/(2 atan(Ω/2)), Ω = ωΔt (Hughes, *The Finite Element
+/// Method*, ch. 9, from memory; Ω = 0.5 → 1.020497, calc).
+#[test]
+fn linear_oscillator_conserves_energy_and_shows_the_newmark_period_elongation() {
+    let (k, mass): (f64, f64) = (4000.0, 10.0);
+    let omega = (k / mass).sqrt();
+    let (m, about, start) = vertical_oscillator(k, mass, 0.05);
     let dt = 0.5 / omega;
     let mut motion = Motion::new(&m, 0, &start, None, &about, MotionSettings { dt, ..Default::default() }).unwrap();
     let e0 = motion.energy().mechanical();
@@ -289,22 +296,7 @@ fn generalized_alpha_with_rho_below_one_dissipates_and_the_audit_books_it() {
 fn rayleigh_damping_gives_the_logarithmic_decrement_of_its_damping_ratio() {
     let (k, mass, zeta): (f64, f64, f64) = (4000.0, 10.0, 0.03);
     let omega = (k / mass).sqrt();
-    let mut p = Project::new("damped oscillator");
-    p.gravity = (0.0, 0.0, 0.0);
-    p.nodes = vec![
-        anchor("top", (0.0, 1.0, 0.0)),
-        rigwright_core::model::NodeDoc {
-            id: "m".into(),
-            at: (0.0, 0.0, 0.0),
-            mass,
-            fixed: [true, false, true],
-        },
-    ];
-    p.members = vec![member("s", "top", "m", spring(k, Rest::AsDrawn))];
-    let m = model(&p);
-    let about: Vec<Vec3> = m.nodes.iter().map(|n| n.position).collect();
-    let mut start = about.clone();
-    start[1].y -= 0.05;
+    let (m, about, start) = vertical_oscillator(k, mass, 0.05);
     let settings = MotionSettings {
         dt: 2e-3 / omega,
         rayleigh: rigwright_core::dynamics::rayleigh_coefficients(zeta, omega, omega),

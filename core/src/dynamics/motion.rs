@@ -317,25 +317,23 @@ impl Motion {
     }
 
     fn step_midpoint(&mut self, dt: f64) -> Result<(), MotionError> {
-        let sys = &self.system;
-        let model = &self.model;
         let x0 = self.pos.clone();
         let v0 = self.vel.clone();
         // Predictor: constant velocity.
         let mut x1 = x0.clone();
-        sys.add_scaled(&mut x1, &v0, dt);
-        let n = sys.size();
+        self.system.add_scaled(&mut x1, &v0, dt);
+        let n = self.system.size();
         let (a0, a1) = self.settings.rayleigh;
         let mut prev_rel = f64::INFINITY;
         for it in 0..=self.settings.max_iterations {
-            let dx = diff(sys, &x1, &x0);
+            let dx = diff(&self.system, &x1, &x0);
             let v1: Vec<f64> = dx.iter().zip(&v0).map(|(d, v)| 2.0 * d / dt - v).collect();
             let vm: Vec<f64> = v1.iter().zip(&v0).map(|(a, b)| 0.5 * (a + b)).collect();
             let cvm = self.damping_times(&vm);
-            let (g, scale) = discrete_gradient(model, sys, &x0, &x1);
+            let (g, scale) = discrete_gradient(&self.model, &self.system, &x0, &x1);
             let mut r = vec![0.0; n];
             let mut rscale2 = 0.0;
-            for (node, a, i) in sys.dofs.free() {
+            for (node, a, i) in self.system.dofs.free() {
                 let inertia = self.mass[i] * (v1[i] - v0[i]) / dt;
                 r[i] = inertia + cvm[i] + g[i] - self.load[node][a];
                 rscale2 += inertia.powi(2) + self.load[node][a].powi(2) + scale[i].powi(2);
@@ -353,29 +351,20 @@ impl Motion {
                 });
             }
             // Jacobian ≈ 2M/Δt² + C/Δt + ½ K_T(x_mid), refactorised only when needed.
+            // Jacobian ≈ 2M/Δt² + C/Δt + ½ K_T(x_mid).
             let slow = rel > 0.25 * prev_rel;
             prev_rel = rel;
-            if slow || self.jacobian.as_ref().is_none_or(|(h, _)| *h != dt) {
-                let mid: Vec<Vec3> = x0.iter().zip(&x1).map(|(a, b)| (a + b) * 0.5).collect();
-                let mut jac: Vec<f64> = sys.assemble(model, &mid, Part::Total).iter().map(|v| 0.5 * v).collect();
-                if a1 != 0.0 {
-                    jac.iter_mut().zip(&self.k0).for_each(|(j, k)| *j += a1 * k / dt);
-                }
-                let diag: Vec<f64> = self.mass.iter().map(|m| m * (2.0 / (dt * dt) + a0 / dt)).collect();
-                let factor = factor_shifted(sys, &jac, &diag).ok_or(MotionError::NotConverged {
-                    time: self.time,
-                    residual: rel,
-                })?;
-                self.jacobian = Some((dt, factor));
-            }
-            let mut delta = r;
-            if let Some((_, f)) = &self.jacobian {
-                f.solve_in_place(&mut delta);
-            }
-            sys.add_scaled(&mut x1, &delta, -1.0);
+            let mid: Vec<Vec3> = x0.iter().zip(&x1).map(|(a, b)| (a + b) * 0.5).collect();
+            let form = JacobianForm {
+                stiffness: 0.5,
+                k0: a1 / dt,
+                mass: 2.0 / (dt * dt) + a0 / dt,
+            };
+            let delta = self.correction(&mid, form, dt, slow, r, rel)?;
+            self.system.add_scaled(&mut x1, &delta, -1.0);
             if rel <= 1e3 * self.settings.tolerance && norm(&delta) <= 1e-14 * self.length_scale {
                 // Converged to round-off: the residual cannot drop further.
-                let dx = diff(sys, &x1, &x0);
+                let dx = diff(&self.system, &x1, &x0);
                 self.vel = dx.iter().zip(&v0).map(|(d, v)| 2.0 * d / dt - v).collect();
                 self.pos = x1;
                 return Ok(());
@@ -389,17 +378,15 @@ impl Motion {
         let af = rho / (rho + 1.0);
         let gamma = 0.5 - am + af;
         let beta = 0.25 * (1.0 - am + af).powi(2);
-        let sys = &self.system;
-        let model = &self.model;
-        let n = sys.size();
+        let n = self.system.size();
         let x0 = self.pos.clone();
         let (v0, acc0) = (self.vel.clone(), self.acc.clone());
         let (a0r, a1r) = self.settings.rayleigh;
         let mut x1 = x0.clone();
-        sys.add_scaled(&mut x1, &v0, dt);
+        self.system.add_scaled(&mut x1, &v0, dt);
         let mut prev_rel = f64::INFINITY;
         for it in 0..=self.settings.max_iterations {
-            let dx = diff(sys, &x1, &x0);
+            let dx = diff(&self.system, &x1, &x0);
             let acc1: Vec<f64> = (0..n)
                 .map(|i| (dx[i] - dt * v0[i] - dt * dt * (0.5 - beta) * acc0[i]) / (beta * dt * dt))
                 .collect();
@@ -407,10 +394,13 @@ impl Motion {
             let xa: Vec<Vec3> = x0.iter().zip(&x1).map(|(a, b)| a * af + b * (1.0 - af)).collect();
             let va: Vec<f64> = (0..n).map(|i| af * v0[i] + (1.0 - af) * v1[i]).collect();
             let aa: Vec<f64> = (0..n).map(|i| am * acc0[i] + (1.0 - am) * acc1[i]).collect();
-            let eval = sys.evaluate(model, &xa, &self.load, 1.0).ok_or(MotionError::NotConverged {
-                time: self.time,
-                residual: f64::INFINITY,
-            })?;
+            let eval = self
+                .system
+                .evaluate(&self.model, &xa, &self.load, 1.0)
+                .ok_or(MotionError::NotConverged {
+                    time: self.time,
+                    residual: f64::INFINITY,
+                })?;
             let cv = self.damping_times(&va);
             let r: Vec<f64> = (0..n).map(|i| self.mass[i] * aa[i] + cv[i] + eval.residual[i]).collect();
             let inertia = norm(&(0..n).map(|i| self.mass[i] * aa[i]).collect::<Vec<_>>());
@@ -429,30 +419,61 @@ impl Motion {
             }
             let slow = rel > 0.25 * prev_rel;
             prev_rel = rel;
-            if slow || self.jacobian.as_ref().is_none_or(|(h, _)| *h != dt) {
-                let mut jac: Vec<f64> = sys.assemble(model, &xa, Part::Total).iter().map(|v| (1.0 - af) * v).collect();
-                if a1r != 0.0 {
-                    let c = (1.0 - af) * gamma / (beta * dt) * a1r;
-                    jac.iter_mut().zip(&self.k0).for_each(|(j, k)| *j += c * k);
-                }
-                let diag: Vec<f64> = self
-                    .mass
-                    .iter()
-                    .map(|m| m * ((1.0 - am) / (beta * dt * dt) + (1.0 - af) * gamma / (beta * dt) * a0r))
-                    .collect();
-                let factor = factor_shifted(sys, &jac, &diag).ok_or(MotionError::NotConverged {
-                    time: self.time,
-                    residual: rel,
-                })?;
-                self.jacobian = Some((dt, factor));
-            }
-            let mut delta = r;
-            if let Some((_, f)) = &self.jacobian {
-                f.solve_in_place(&mut delta);
-            }
-            sys.add_scaled(&mut x1, &delta, -1.0);
+            let c = (1.0 - af) * gamma / (beta * dt);
+            let form = JacobianForm {
+                stiffness: 1.0 - af,
+                k0: c * a1r,
+                mass: (1.0 - am) / (beta * dt * dt) + c * a0r,
+            };
+            let delta = self.correction(&xa, form, dt, slow, r, rel)?;
+            self.system.add_scaled(&mut x1, &delta, -1.0);
         }
         unreachable!("loop returns")
+    }
+}
+
+/// Step Jacobian `stiffness · K_T(x) + k0 · K₀ + mass · M` as coefficients.
+#[derive(Debug, Clone, Copy)]
+struct JacobianForm {
+    stiffness: f64,
+    k0: f64,
+    mass: f64,
+}
+
+impl Motion {
+    /// Newton correction `J⁻¹ r` with `J` of `form` at `at`. The factorisation is reused across
+    /// iterations and steps (modified Newton) and rebuilt when none exists for this step size
+    /// or the last iteration was `slow`.
+    fn correction(
+        &mut self,
+        at: &[Vec3],
+        form: JacobianForm,
+        dt: f64,
+        slow: bool,
+        mut r: Vec<f64>,
+        rel: f64,
+    ) -> Result<Vec<f64>, MotionError> {
+        if slow || self.jacobian.as_ref().is_none_or(|(h, _)| *h != dt) {
+            let mut jac: Vec<f64> = self
+                .system
+                .assemble(&self.model, at, Part::Total)
+                .iter()
+                .map(|v| form.stiffness * v)
+                .collect();
+            if form.k0 != 0.0 {
+                jac.iter_mut().zip(&self.k0).for_each(|(j, k)| *j += form.k0 * k);
+            }
+            let diag: Vec<f64> = self.mass.iter().map(|m| m * form.mass).collect();
+            let factor = factor_shifted(&self.system, &jac, &diag).ok_or(MotionError::NotConverged {
+                time: self.time,
+                residual: rel,
+            })?;
+            self.jacobian = Some((dt, factor));
+        }
+        if let Some((_, f)) = &self.jacobian {
+            f.solve_in_place(&mut r);
+        }
+        Ok(r)
     }
 }
 
