@@ -61,7 +61,7 @@ fn a_rig_built_through_the_ui_shows_its_solved_cable_tension() {
     assert_eq!(app.doc.project.members.len(), 2);
     assert!(app.doc.problems.is_none(), "{:?}", app.doc.problems);
     let a = app.answer().expect("the rig solves");
-    // Symmetric: each cable at 45°, T = m g / (2 sin 45°).
+    // Symmetric: each cable at 45°, T = m g / (2 sin 45°) (statics of a point, common practice).
     let expected = 10.0 * 9.81 / (2.0 * std::f64::consts::FRAC_1_SQRT_2);
     let force = a.eq.members[0].force;
     assert!(
