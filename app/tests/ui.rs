@@ -259,3 +259,40 @@ fn a_mass_balanced_on_a_pinned_strut_is_reported_and_not_shown_as_an_answer() {
     assert!(h.query_all_by_label(&d).count() >= 1, "the Readouts show the diagnostic: {d}");
     assert_eq!(h.query_all_by_label("rope").count(), 0, "no member table is shown");
 }
+
+#[test]
+fn a_box_drag_selects_several_nodes_and_delete_removes_them_with_their_members() {
+    let mut h = harness();
+    let screen = |h: &Harness<'static, RigApp>, id: &str| {
+        let n = h.state().doc.project.nodes.iter().find(|n| n.id == id).unwrap().at;
+        h.state().screen_pos([n.0, n.1, n.2])
+    };
+    // The default sample: wall-left (0, 4), sign (1.8, 2.6), wall-right (5, 4.6). A box around
+    // the last two leaves wall-left out.
+    let (a, b) = (screen(&h, "sign"), screen(&h, "wall-right"));
+    let from = Pos2::new(a.x.min(b.x) - 15.0, a.y.max(b.y) + 15.0);
+    let to = Pos2::new(a.x.max(b.x) + 15.0, a.y.min(b.y) - 15.0);
+    h.hover_at(from);
+    h.run();
+    h.drag_at(from);
+    h.step();
+    h.hover_at(from + (to - from) * 0.5);
+    h.run();
+    h.hover_at(to);
+    h.run();
+    h.drop_at(to);
+    h.run();
+    let mut caught: Vec<String> = h.state().boxed.iter().map(|&i| h.state().doc.project.nodes[i].id.clone()).collect();
+    caught.sort();
+    assert_eq!(caught, ["sign", "wall-right"]);
+    h.key_press(egui::Key::Delete);
+    h.run();
+    let p = &h.state().doc.project;
+    assert_eq!(p.nodes.iter().map(|n| n.id.as_str()).collect::<Vec<_>>(), ["wall-left"]);
+    assert!(p.members.is_empty(), "members attached to deleted nodes go with them");
+    // One undo step brings all of it back.
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    assert_eq!(h.state().doc.project.nodes.len(), 3);
+    assert_eq!(h.state().doc.project.members.len(), 2);
+}

@@ -130,7 +130,9 @@ impl Tool {
     /// Tooltip.
     pub fn tip(self) -> &'static str {
         match self {
-            Tool::Select => "Select a node, member or load; drag a node or anchor to move it (the rig re-solves as you drag). [V]",
+            Tool::Select => {
+                "Select a node, member or load; drag a node or anchor to move it (the rig re-solves as you drag); drag on empty space to box-select nodes. [V]"
+            }
             Tool::Pull => {
                 "Pull: grab a free node and hold it at the cursor; the rest re-equilibrates and the restoring force is shown. [P]"
             }
@@ -243,6 +245,8 @@ pub struct RigApp {
     /// The last unheld solve outcome (the answer shown).
     pub solved: Option<SolveOutcome>,
     pub pull: Option<PullSession>,
+    /// Nodes caught by a box selection (document indices); Delete removes them all.
+    pub boxed: Vec<usize>,
     /// The rig vibrating after a Pull was let go.
     pub pluck: Option<pluck::PluckSession>,
     /// Natural modes of the current answer (computed when the Modes tab is shown).
@@ -304,6 +308,7 @@ impl RigApp {
             readout_tab: ReadoutTab::Members,
             solved: None,
             pull: None,
+            boxed: Vec::new(),
             pluck: None,
             modes: None,
             pluck_on_release: true,
@@ -540,6 +545,7 @@ impl RigApp {
 
     fn clamp_selection(&mut self) {
         let p = &self.doc.project;
+        self.boxed.retain(|&i| i < p.nodes.len());
         let ok = match self.selection {
             Selection::None => true,
             Selection::Node(i) => i < p.nodes.len(),
@@ -556,6 +562,26 @@ impl RigApp {
 
     fn delete_selection(&mut self) {
         let case = self.case;
+        if !self.boxed.is_empty() {
+            let mut ids: Vec<String> = self
+                .boxed
+                .iter()
+                .filter_map(|&i| self.doc.project.nodes.get(i).map(|n| n.id.clone()))
+                .collect();
+            ids.sort();
+            self.boxed.clear();
+            self.selection = Selection::None;
+            self.doc.edit(None, move |p: &mut Project| {
+                let gone = |id: &String| ids.binary_search(id).is_ok();
+                p.nodes.retain(|n| !gone(&n.id));
+                p.members.retain(|m| !gone(&m.ends.0) && !gone(&m.ends.1));
+                for c in &mut p.cases {
+                    c.loads.retain(|l| !gone(&l.node));
+                }
+            });
+            self.clamp_selection();
+            return;
+        }
         let apply: EditFn = match self.selection {
             Selection::None => return,
             Selection::Node(i) => Box::new(move |p: &mut Project| {

@@ -51,6 +51,10 @@ pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
     ui.separator();
     egui::ScrollArea::vertical().auto_shrink([false, false]).show(ui, |ui| {
         match app.selection {
+            Selection::None if app.boxed.len() > 1 => {
+                ui.label(RichText::new(format!("{} nodes selected", app.boxed.len())).strong());
+                ui.label("Delete removes them with the members and loads attached to them. Click on the Rig view to clear.");
+            }
             Selection::None => project(app, ui),
             Selection::Node(i) => node(app, ui, i),
             Selection::Member(i) => member(app, ui, i),

@@ -66,8 +66,15 @@ impl Plane {
 enum Drag {
     None,
     Pan,
-    Node { index: usize, key: String },
+    Node {
+        index: usize,
+        key: String,
+    },
     Pull,
+    /// Box selection from this screen point.
+    Box {
+        from: Pos2,
+    },
 }
 
 /// Camera and interaction state of the Rig view.
@@ -296,6 +303,7 @@ pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
         draw_answer(app, &a, &painter, units);
     }
     draw_member_start(app, &painter);
+    draw_box_selection(app, &painter, response.interact_pointer_pos());
     draw_scale_bar_and_axes(&app.view, &painter, units);
     draw_banners(&painter, rect, &banners);
     if app.answer().is_some() {
@@ -416,7 +424,7 @@ fn draw_drawn(app: &RigApp, painter: &egui::Painter) {
         if n.fixed != [false; 3] && !faint_only {
             draw_support(view, painter, s, n.fixed, pal::DRAWN);
         }
-        let selected = app.selection == Selection::Node(i);
+        let selected = app.selection == Selection::Node(i) || app.boxed.contains(&i);
         if selected {
             painter.circle_stroke(s, 8.0, Stroke::new(2.0, pal::SELECT));
         }
@@ -703,6 +711,19 @@ fn draw_pull(app: &RigApp, a: &Answer<'_>, painter: &egui::Painter, units: Units
     ));
 }
 
+/// The rubber band of a box selection, and rings on the nodes it caught.
+fn draw_box_selection(app: &RigApp, painter: &egui::Painter, pointer: Option<Pos2>) {
+    if let (Drag::Box { from }, Some(to)) = (&app.view.drag, pointer) {
+        let area = Rect::from_two_pos(*from, to);
+        painter.rect_filled(area, 0.0, pal::SELECT.gamma_multiply(0.08));
+        painter.rect_stroke(area, 0.0, Stroke::new(1.0, pal::SELECT), egui::StrokeKind::Inside);
+    }
+    let p = &app.doc.project;
+    for &i in app.boxed.iter().filter(|&&i| i < p.nodes.len()) {
+        painter.circle_stroke(app.view.to_screen(node_pos(p, i)), 9.0, Stroke::new(2.0, pal::SELECT));
+    }
+}
+
 fn draw_member_start(app: &RigApp, painter: &egui::Painter) {
     let Some(i) = app.view.member_start else { return };
     if i >= app.doc.project.nodes.len() {
@@ -905,6 +926,10 @@ fn interact(app: &mut RigApp, ui: &egui::Ui, response: &egui::Response) {
                         key: format!("drag-node-{}", app.view.serial),
                     };
                     app.selection = Selection::Node(i);
+                    app.boxed.clear();
+                } else {
+                    // A drag from empty space draws a selection box.
+                    app.view.drag = Drag::Box { from: at };
                 }
             }
             Tool::Pull => {
@@ -960,6 +985,19 @@ fn interact(app: &mut RigApp, ui: &egui::Ui, response: &egui::Response) {
     if response.drag_stopped() {
         match app.view.drag {
             Drag::Node { .. } => app.queue(Command::Seal),
+            Drag::Box { from } => {
+                if let Some(to) = pointer {
+                    let area = Rect::from_two_pos(from, to);
+                    let p = &app.doc.project;
+                    app.boxed = (0..p.nodes.len())
+                        .filter(|&i| area.contains(app.view.to_screen(node_pos(p, i))))
+                        .collect();
+                    app.selection = match app.boxed.as_slice() {
+                        [one] => Selection::Node(*one),
+                        _ => Selection::None,
+                    };
+                }
+            }
             Drag::Pull => {
                 if let Some(p) = app.pull.as_mut() {
                     p.active = false;
@@ -976,6 +1014,7 @@ fn interact(app: &mut RigApp, ui: &egui::Ui, response: &egui::Response) {
     if !response.clicked() {
         return;
     }
+    app.boxed.clear();
     let Some(s) = pointer else { return };
     let project = &app.doc.project;
     match app.tool {
