@@ -296,3 +296,20 @@ fn a_box_drag_selects_several_nodes_and_delete_removes_them_with_their_members()
     assert_eq!(h.state().doc.project.nodes.len(), 3);
     assert_eq!(h.state().doc.project.members.len(), 2);
 }
+
+#[test]
+fn f1_opens_the_shortcut_help_and_the_about_box_carries_the_cautions() {
+    let mut h = harness();
+    h.key_press(egui::Key::F1);
+    h.run();
+    assert!(h.state().show_help, "F1 opens the keyboard-shortcut overlay");
+    h.get_by_label("Help").click();
+    h.run();
+    h.get_by_label("About Rigwright").click();
+    h.run();
+    assert!(h.state().show_about);
+    assert!(
+        h.query_by_label_contains("can fail suddenly and hurt people").is_some(),
+        "the About box shows the cautions"
+    );
+}
