@@ -192,17 +192,19 @@ fn lanczos_pairs(apply: &dyn Fn(&DMatrix<f64>) -> DMatrix<f64>, m: usize, count:
         }
         let a = q.transpose() * &w;
         w -= &q * &a;
-        // Full reorthogonalisation against the whole basis, twice.
-        let basis = v.columns(0, (k + 1) * b);
-        for _ in 0..2 {
-            let c = basis.transpose() * &w;
-            w -= basis * c;
+        // Full reorthogonalisation against the whole basis; a second pass only when the first
+        // removed most of a column ("twice is enough", Parlett, *The Symmetric Eigenvalue
+        // Problem*, §6.9).
+        let before: Vec<f64> = w.column_iter().map(|c| c.norm()).collect();
+        project_out(&v, (k + 1) * b, &mut w);
+        if w.column_iter().zip(&before).any(|(c, n0)| c.norm() < 0.7 * n0) {
+            project_out(&v, (k + 1) * b, &mut w);
         }
         let a = (&a + a.transpose()) * 0.5;
         t.view_mut((k * b, k * b), (b, b)).copy_from(&a);
         let (qn, beta) = qr_block(w);
         let used = k + 1;
-        if used >= min_blocks && (used % 2 == 0 || used == max_blocks) {
+        if used >= min_blocks {
             let (pairs, left) = ritz_pairs(&t, &v, &beta, used * b, b, count);
             unconverged = left;
             if left == 0 {
@@ -225,6 +227,20 @@ fn lanczos_pairs(apply: &dyn Fn(&DMatrix<f64>) -> DMatrix<f64>, m: usize, count:
     Err(ModeError::NotConverged(unconverged))
 }
 
+/// `w ← w − V Vᵀ w` over the first `cols` columns of the basis `v` (faer's dense products,
+/// much faster than the generic ones for these tall matrices).
+fn project_out(v: &DMatrix<f64>, cols: usize, w: &mut DMatrix<f64>) {
+    let (m, b) = w.shape();
+    let basis = faer::MatRef::from_column_major_slice(&v.as_slice()[..m * cols], m, cols);
+    let c = basis.transpose() * faer::MatRef::from_column_major_slice(w.as_slice(), m, b);
+    let update = basis * &c;
+    for j in 0..b {
+        for i in 0..m {
+            w[(i, j)] -= update[(i, j)];
+        }
+    }
+}
+
 /// Ritz pairs from the first `dim` basis vectors, largest first, and how many of the first
 /// `count` have not converged.
 fn ritz_pairs(
@@ -239,18 +255,31 @@ fn ritz_pairs(
     let mut idx: Vec<usize> = (0..dim).collect();
     idx.sort_by(|&i, &j| eig.eigenvalues[j].total_cmp(&eig.eigenvalues[i]));
     let top = eig.eigenvalues[idx[0]].abs().max(1e-300);
-    let mut unconverged = 0;
-    let mut pairs = Vec::new();
-    for &i in idx.iter().take(count) {
-        let s = eig.eigenvectors.column(i);
-        let tail = s.rows(dim - b, b).into_owned();
-        if (last_beta * tail).norm() > 1e-9 * top {
-            unconverged += 1;
-        }
-        let y = v.columns(0, dim) * s;
-        let nrm = y.norm();
-        pairs.push((eig.eigenvalues[i], (y / nrm).iter().copied().collect()));
+    let wanted: Vec<usize> = idx.iter().take(count).copied().collect();
+    let unconverged = wanted
+        .iter()
+        .filter(|&&i| {
+            let tail = eig.eigenvectors.column(i).rows(dim - b, b).into_owned();
+            (last_beta * tail).norm() > 1e-9 * top
+        })
+        .count();
+    if unconverged > 0 {
+        return (Vec::new(), unconverged);
     }
+    // Ritz vectors V s, formed only once every wanted pair has converged.
+    let m = v.nrows();
+    let basis = faer::MatRef::from_column_major_slice(&v.as_slice()[..m * dim], m, dim);
+    let pairs = wanted
+        .iter()
+        .map(|&i| {
+            let s: Vec<f64> = eig.eigenvectors.column(i).iter().copied().collect();
+            let y = basis * faer::MatRef::from_column_major_slice(&s, dim, 1);
+            let mut y: Vec<f64> = (0..m).map(|r| y[(r, 0)]).collect();
+            let nrm = y.iter().map(|x| x * x).sum::<f64>().sqrt();
+            y.iter_mut().for_each(|x| *x /= nrm);
+            (eig.eigenvalues[i], y)
+        })
+        .collect();
     (pairs, unconverged)
 }
 
