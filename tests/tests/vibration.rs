@@ -6,23 +6,29 @@ use rigwright_core::dynamics::{Motion, MotionSettings, Scheme, modes};
 use rigwright_core::{Model, Project, Rest, Statics, Vec3};
 use rigwright_verification::*;
 
+/// A bead of `mass` (kg) at the middle of a 2 m string of two cables with axial stiffness `ea`
+/// (N) pretensioned to `tension` (N), no gravity.
+fn bead_on_string(mass: f64, tension: f64, ea: f64) -> Model {
+    let mut p = Project::new("bead on a string");
+    p.gravity = (0.0, 0.0, 0.0);
+    p.nodes = vec![
+        anchor("a", (0.0, 0.0, 0.0)),
+        node("bead", (1.0, 0.0, 0.0), mass),
+        anchor("b", (2.0, 0.0, 0.0)),
+    ];
+    p.members = vec![
+        member("left", "a", "bead", cable(ea, Rest::Tension(tension))),
+        member("right", "bead", "b", cable(ea, Rest::Tension(tension))),
+    ];
+    model(&p)
+}
+
 /// A bead of mass m at mid-span of a massless string with tension T and span L vibrates
 /// transversely at ω² = 4T/(mL) (shared REFERENCES §2, from memory of any vibration text,
 /// e.g. Rao, *Mechanical Vibrations*): m = 10 kg, T = 1000 N, L = 2 m → f = 2.25079 Hz (calc).
 #[test]
 fn bead_at_mid_span_of_a_tensioned_string_has_the_textbook_frequency() {
-    let mut p = Project::new("bead on a string");
-    p.gravity = (0.0, 0.0, 0.0);
-    p.nodes = vec![
-        anchor("a", (0.0, 0.0, 0.0)),
-        node("bead", (1.0, 0.0, 0.0), 10.0),
-        anchor("b", (2.0, 0.0, 0.0)),
-    ];
-    p.members = vec![
-        member("left", "a", "bead", cable(1e7, Rest::Tension(1000.0))),
-        member("right", "bead", "b", cable(1e7, Rest::Tension(1000.0))),
-    ];
-    let m = model(&p);
+    let m = bead_on_string(10.0, 1000.0, 1e7);
     let statics = Statics::new(&m);
     let eq = statics.solve(0, None).unwrap();
     let ms = modes(&statics, &eq, 2).unwrap();
@@ -168,18 +174,7 @@ fn linear_oscillator_conserves_energy_and_shows_the_newmark_period_elongation() 
 /// error at a fixed time (second-order accuracy of the midpoint rule, common practice).
 #[test]
 fn pluck_is_second_order_accurate_in_the_time_step() {
-    let mut p = Project::new("bead");
-    p.gravity = (0.0, 0.0, 0.0);
-    p.nodes = vec![
-        anchor("a", (0.0, 0.0, 0.0)),
-        node("bead", (1.0, 0.0, 0.0), 2.0),
-        anchor("b", (2.0, 0.0, 0.0)),
-    ];
-    p.members = vec![
-        member("l", "a", "bead", cable(2e4, Rest::Tension(200.0))),
-        member("r", "bead", "b", cable(2e4, Rest::Tension(200.0))),
-    ];
-    let m = model(&p);
+    let m = bead_on_string(2.0, 200.0, 2e4);
     let about: Vec<Vec3> = m.nodes.iter().map(|n| n.position).collect();
     let mut start = about.clone();
     start[1].y += 0.3;
