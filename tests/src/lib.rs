@@ -45,6 +45,16 @@ pub fn node(id: &str, at: (f64, f64, f64), mass: f64) -> NodeDoc {
     }
 }
 
+/// A node guided along y (x and z held) at `at` (m) with mass (kg).
+pub fn guided_y(id: &str, at: (f64, f64, f64), mass: f64) -> NodeDoc {
+    NodeDoc {
+        id: id.into(),
+        at,
+        mass,
+        fixed: [true, false, true],
+    }
+}
+
 /// An anchor at `at` (m).
 pub fn anchor(id: &str, at: (f64, f64, f64)) -> NodeDoc {
     NodeDoc {

@@ -123,15 +123,7 @@ fn repeated_frequency_pairs_of_a_3d_string_are_all_found_by_the_sparse_eigensolv
 fn vertical_oscillator(k: f64, mass: f64, pull: f64) -> (Model, Vec<Vec3>, Vec<Vec3>) {
     let mut p = Project::new("oscillator");
     p.gravity = (0.0, 0.0, 0.0);
-    p.nodes = vec![
-        anchor("top", (0.0, 1.0, 0.0)),
-        rigwright_core::model::NodeDoc {
-            id: "m".into(),
-            at: (0.0, 0.0, 0.0),
-            mass,
-            fixed: [true, false, true],
-        },
-    ];
+    p.nodes = vec![anchor("top", (0.0, 1.0, 0.0)), guided_y("m", (0.0, 0.0, 0.0), mass)];
     p.members = vec![member("s", "top", "m", spring(k, Rest::AsDrawn))];
     let m = model(&p);
     let about: Vec<Vec3> = m.nodes.iter().map(|n| n.position).collect();
@@ -213,12 +205,7 @@ fn cable_that_goes_slack_every_cycle_has_the_two_stiffness_period_and_keeps_ener
     p.gravity = (0.0, 0.0, 0.0);
     p.nodes = vec![
         anchor("top", (0.0, 1.0, 0.0)),
-        rigwright_core::model::NodeDoc {
-            id: "m".into(),
-            at: (0.0, 0.0, 0.0),
-            mass,
-            fixed: [true, false, true],
-        },
+        guided_y("m", (0.0, 0.0, 0.0), mass),
         anchor("bottom", (0.0, -1.0, 0.0)),
     ];
     p.members = vec![

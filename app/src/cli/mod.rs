@@ -169,6 +169,22 @@ fn case_index(model: &Model, case: Option<&str>) -> Result<usize, Failure> {
     }
 }
 
+/// Loads a project and resolves the load case (default: the first).
+fn load_case(path: &Path, case: Option<&str>) -> Result<(Model, usize), Failure> {
+    let (_, model) = load(path)?;
+    let case = case_index(&model, case)?;
+    Ok((model, case))
+}
+
+/// Prints a command's output; a JSON document ends with a newline.
+fn print_output(text: &str, json: bool) {
+    if json {
+        println!("{text}");
+    } else {
+        print!("{text}");
+    }
+}
+
 fn case_list(model: &Model) -> String {
     model.cases.iter().map(|c| format!("`{}`", c.name)).collect::<Vec<_>>().join(", ")
 }
@@ -177,12 +193,8 @@ fn case_list(model: &Model) -> String {
 pub fn run(command: Command) -> Result<(), Failure> {
     match command {
         Command::Modes { file, case, count, json } => {
-            let (_, model) = load(&file)?;
-            let case = case_index(&model, case.as_deref())?;
-            print!("{}", dynamics::modes_command(&model, case, count, json)?);
-            if json {
-                println!();
-            }
+            let (model, case) = load_case(&file, case.as_deref())?;
+            print_output(&dynamics::modes_command(&model, case, count, json)?, json);
             Ok(())
         }
         Command::Pluck {
@@ -198,8 +210,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
             csv,
             json,
         } => {
-            let (_, model) = load(&file)?;
-            let case = case_index(&model, case.as_deref())?;
+            let (model, case) = load_case(&file, case.as_deref())?;
             let offset = parse_offset(&offset)?;
             let args = dynamics::PluckArgs {
                 case,
@@ -213,10 +224,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
                 csv: csv.as_deref(),
                 json,
             };
-            print!("{}", dynamics::pluck_command(&model, &args)?);
-            if json {
-                println!();
-            }
+            print_output(&dynamics::pluck_command(&model, &args)?, json);
             Ok(())
         }
         Command::Solve {
@@ -225,8 +233,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
             json,
             stiffness,
         } => {
-            let (_, model) = load(&file)?;
-            let case = case_index(&model, case.as_deref())?;
+            let (model, case) = load_case(&file, case.as_deref())?;
             let statics = Statics::new(&model);
             let node = match &stiffness {
                 Some(id) => Some(

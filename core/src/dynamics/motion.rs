@@ -351,7 +351,6 @@ impl Motion {
                 });
             }
             // Jacobian ≈ 2M/Δt² + C/Δt + ½ K_T(x_mid), refactorised only when needed.
-            // Jacobian ≈ 2M/Δt² + C/Δt + ½ K_T(x_mid).
             let slow = rel > 0.25 * prev_rel;
             prev_rel = rel;
             let mid: Vec<Vec3> = x0.iter().zip(&x1).map(|(a, b)| (a + b) * 0.5).collect();
