@@ -250,6 +250,7 @@ fn a_mass_balanced_on_a_pinned_strut_is_reported_and_not_shown_as_an_answer() {
                 rest: Rest::AsDrawn,
             },
             mass_per_length: 0.0,
+            design: None,
         });
     });
     h.state_mut().queue(Command::Edit { merge: None, apply: edit });

@@ -41,6 +41,7 @@ pub fn cable_net(n: usize, spacing: f64, ea: f64, pretension: f64, node_mass: f6
                     ends: (id(i, j), id(i + 1, j)),
                     kind: cable(),
                     mass_per_length: 0.0,
+                    design: None,
                 });
             }
             if j + 1 < n && !edge(i) {
@@ -49,6 +50,7 @@ pub fn cable_net(n: usize, spacing: f64, ea: f64, pretension: f64, node_mass: f6
                     ends: (id(i, j), id(i, j + 1)),
                     kind: cable(),
                     mass_per_length: 0.0,
+                    design: None,
                 });
             }
         }
@@ -88,6 +90,7 @@ pub fn hanging_chain(links: usize, span: f64, length: f64, ea: f64, weight_per_l
                 rest: Rest::Length(length / links as f64),
             },
             mass_per_length: weight_per_length / gravity,
+            design: None,
         });
     }
     p

@@ -72,6 +72,7 @@ pub fn member(id: &str, a: &str, b: &str, kind: MemberDocKind) -> MemberDoc {
         ends: (a.into(), b.into()),
         kind,
         mass_per_length: 0.0,
+        design: None,
     }
 }
 

@@ -1096,6 +1096,7 @@ fn interact(app: &mut RigApp, ui: &egui::Ui, response: &egui::Response) {
                                 ends,
                                 kind,
                                 mass_per_length: 0.0,
+                                design: None,
                             })
                         }),
                     });

@@ -8,9 +8,11 @@ use std::fmt;
 use std::path::Path;
 
 use super::validated::{Model, Problem};
+use crate::sizing::{MemberDesign, SizingDoc};
 
-/// Current version of the project file format.
-pub const FORMAT_VERSION: u32 = 1;
+/// Current version of the project file format. Version 2 added design data (`sizing`,
+/// member `design`); version 1 files read unchanged.
+pub const FORMAT_VERSION: u32 = 2;
 /// File name ending of project files.
 pub const FILE_EXTENSION: &str = ".rig.ron";
 
@@ -48,6 +50,9 @@ pub struct Project {
     /// Load cases; an empty list means one case, "gravity", with gravity only.
     #[serde(default)]
     pub cases: Vec<CaseDoc>,
+    /// Design factors, limits and the project's own catalogue entries.
+    #[serde(default, skip_serializing_if = "SizingDoc::is_default")]
+    pub sizing: SizingDoc,
 }
 
 fn default_gravity() -> (f64, f64, f64) {
@@ -112,6 +117,9 @@ pub struct MemberDoc {
     /// Mass per unstressed length (kg/m), lumped half to each end; 0 to ignore self-weight.
     #[serde(default, skip_serializing_if = "is_zero")]
     pub mass_per_length: f64,
+    /// What the member is made of, for the checks.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub design: Option<MemberDesign>,
 }
 
 /// A point load on a node (N).
@@ -188,6 +196,7 @@ impl Project {
             nodes: Vec::new(),
             members: Vec::new(),
             cases: Vec::new(),
+            sizing: SizingDoc::default(),
         }
     }
 
@@ -216,7 +225,7 @@ impl Project {
                 supported: FORMAT_VERSION,
             });
         }
-        let project: Project = ron::from_str(text).map_err(|e| {
+        let mut project: Project = ron::from_str(text).map_err(|e| {
             // An error on the last line of a file that stops inside the document means the
             // file was cut short.
             let last_line = text.trim_end().lines().count();
@@ -234,9 +243,15 @@ impl Project {
         })?;
         if project.version == 0 {
             return Err(ProjectError::Invalid {
-                problems: vec![Problem::new("project", "version 0 is not a released format", "set `version: 1`")],
+                problems: vec![Problem::new(
+                    "project",
+                    "version 0 is not a released format",
+                    format!("set `version: {FORMAT_VERSION}`"),
+                )],
             });
         }
+        // Older versions are subsets of this one: read as is, saved as the current version.
+        project.version = FORMAT_VERSION;
         Ok(project)
     }
 

@@ -1,11 +1,23 @@
-//! Sizing: wire rope and strand from the published minimum-breaking-force method, helical
-//! springs from the standard design formulas, and design factors.
+//! Sizing: the parts catalogue, wire rope from the published minimum-breaking-force method,
+//! helical springs from the standard design formulas, design factors, the checks of every
+//! member across every load case, auto-size and Sweep.
 //!
 //! Every default here is labelled with where it comes from; the user can override all of it.
-//! These are design aids: rated data of actual components and local codes decide.
+//! These are design aids: rated data of actual components, local codes and a qualified
+//! engineer decide.
 
+pub mod autosize;
+pub mod catalogue;
+pub mod check;
+pub mod design;
 pub mod rope;
 pub mod spring;
+pub mod sweep;
 
+pub use autosize::{AutoSize, auto_size};
+pub use catalogue::{Catalogue, Part};
+pub use check::{CaseOutcome, CheckLine, CheckReport, MemberCheck, Status, check, check_project, project_catalogue, solve_cases};
+pub use design::{DesignFactors, MemberDesign, SizingDoc, SpringDesign, SpringEnds, StrutSection};
 pub use rope::{Construction, Core, RopeSpec, minimum_breaking_force_kn};
-pub use spring::{SpringMaterial, SpringReport, helical_spring};
+pub use spring::{SpringMaterial, SpringProperties, SpringReport, SpringRequirement, design_spring, helical_spring};
+pub use sweep::{Output, Param, SweepResult, sweep};

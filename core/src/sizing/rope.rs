@@ -45,6 +45,31 @@ impl Construction {
         }
     }
 
+    /// Mass factor W of `m [kg/m] = W d² / 100` (EN 12385-4 tables, from memory: the shared
+    /// references list K and C only). Each is 1.1–1.25 times the metallic mass `C d² ρ`
+    /// (lay and core), which the tests check.
+    pub fn mass_factor(self, core: Core) -> f64 {
+        use Construction::*;
+        match (self, core) {
+            (SixBySeven, Core::Fibre) => 0.345,
+            (SixBySeven, Core::Steel) => 0.384,
+            (SixByNineteen, Core::Fibre) => 0.359,
+            (SixByNineteen, Core::Steel) => 0.400,
+            (SixByThirtySix, Core::Fibre) => 0.367,
+            (SixByThirtySix, Core::Steel) => 0.409,
+            (EightByNineteen, Core::Fibre) => 0.340,
+            (EightByNineteen, Core::Steel) => 0.407,
+        }
+    }
+
+    /// Every construction.
+    pub const ALL: [Construction; 4] = [
+        Construction::SixBySeven,
+        Construction::SixByNineteen,
+        Construction::SixByThirtySix,
+        Construction::EightByNineteen,
+    ];
+
     /// Name as printed, e.g. "6×19".
     pub fn name(self) -> &'static str {
         match self {
@@ -52,6 +77,16 @@ impl Construction {
             Construction::SixByNineteen => "6×19",
             Construction::SixByThirtySix => "6×36",
             Construction::EightByNineteen => "8×19",
+        }
+    }
+}
+
+impl Core {
+    /// "FC" or "IWRC".
+    pub fn abbreviation(self) -> &'static str {
+        match self {
+            Core::Fibre => "FC",
+            Core::Steel => "IWRC",
         }
     }
 }
@@ -103,6 +138,11 @@ impl RopeSpec {
         c * self.diameter_mm * self.diameter_mm * 1e-6
     }
 
+    /// Mass per length (kg/m).
+    pub fn mass_per_length(&self) -> f64 {
+        self.construction.mass_factor(self.core) * self.diameter_mm * self.diameter_mm / 100.0
+    }
+
     /// Axial stiffness EA (N).
     pub fn ea(&self) -> f64 {
         self.modulus_gpa * 1e9 * self.metallic_area()
@@ -120,5 +160,20 @@ mod tests {
         let r = RopeSpec::new(Construction::SixBySeven, Core::Fibre, 10.0, 1770.0);
         assert!((r.minimum_breaking_force() / 1000.0 - 58.764).abs() < 1e-9);
         assert!((r.metallic_area() * 1e6 - 36.9).abs() < 1e-9);
+    }
+
+    /// The mass factors are from memory; check each against the metallic mass `C d² ρ`
+    /// (ρ = 7850 kg/m³, common practice): lay and core make a rope 10–25 % heavier than its
+    /// straight metallic area (common practice), never lighter.
+    #[test]
+    fn mass_factors_are_plausible_against_the_metallic_area() {
+        for c in Construction::ALL {
+            for core in [Core::Fibre, Core::Steel] {
+                let (_, area) = c.factors(core);
+                let metallic = area * 7850.0 * 1e-6 * 100.0;
+                let ratio = c.mass_factor(core) / metallic;
+                assert!((1.08..1.25).contains(&ratio), "{} {:?}: {ratio}", c.name(), core);
+            }
+        }
     }
 }

@@ -1,0 +1,522 @@
+//! Checks of every member across every load case: cable tension and slack, spring stress,
+//! solid length and buckling, strut buckling and capacity.
+//!
+//! A case that has no stable equilibrium is reported as such and its members are not checked
+//! in it; the report then does not pass, whatever the other cases say.
+
+use serde::Serialize;
+
+use super::catalogue::Catalogue;
+use super::design::{DesignFactors, MemberDesign};
+use crate::element::{MemberClass, MemberKind};
+use crate::model::{Model, Project, ProjectError};
+use crate::solve::{Equilibrium, Statics};
+
+/// A utilisation may exceed 1 by this much and still pass: the solver's forces are exact to
+/// its residual tolerance (1e-10 relative), not to the last bit.
+pub const UTILISATION_TOLERANCE: f64 = 1e-9;
+
+/// Outcome of a check, member or line. Shown with its word, never by colour alone.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Status {
+    Pass,
+    /// Passes, with utilisation above the project's near-limit fraction.
+    Near,
+    Fail,
+    /// Nothing to check against (no part, design or section given).
+    NotChecked,
+}
+
+impl Status {
+    /// The word shown in tables.
+    pub fn word(self) -> &'static str {
+        match self {
+            Status::Pass => "pass",
+            Status::Near => "near limit",
+            Status::Fail => "FAIL",
+            Status::NotChecked => "not checked",
+        }
+    }
+}
+
+/// The equilibrium of one load case, or why there is none.
+#[derive(Debug, Clone, Serialize)]
+pub struct CaseOutcome {
+    pub name: String,
+    /// The stable equilibrium; `None` when the case did not give one.
+    #[serde(skip)]
+    pub equilibrium: Option<Equilibrium>,
+    /// Why there is no usable equilibrium.
+    pub error: Option<String>,
+}
+
+/// One check of one member in one case.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct CheckLine {
+    /// "tension", "slack", "stress", "solid length", "buckling", "capacity", "direction".
+    pub check: &'static str,
+    /// Governing load case (empty for checks that do not depend on the load).
+    pub case: String,
+    /// What the member must carry, in `unit`.
+    pub demand: f64,
+    /// What it can carry after the design factor and efficiency, in `unit`.
+    pub limit: f64,
+    /// "N", "Pa" or "m".
+    pub unit: &'static str,
+    /// demand ÷ limit where that is meaningful.
+    pub utilisation: Option<f64>,
+    pub status: Status,
+    /// The formula or the reason, as printed.
+    pub note: String,
+}
+
+/// What a member's capacity is, for tables.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Capacity {
+    pub value: f64,
+    pub unit: &'static str,
+    /// "minimum breaking force", "allowable stress", "Euler load".
+    pub what: &'static str,
+}
+
+/// Every check of one member.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct MemberCheck {
+    pub id: String,
+    pub class: MemberClass,
+    /// Catalogue entry or design, as printed.
+    pub made_of: Option<String>,
+    /// Smallest axial force over the solved cases (N) and its case.
+    pub force_min: Option<(f64, String)>,
+    /// Largest axial force over the solved cases (N) and its case.
+    pub force_max: Option<(f64, String)>,
+    pub capacity: Option<Capacity>,
+    pub design_factor: f64,
+    /// Termination efficiency of a cable.
+    pub efficiency: Option<f64>,
+    /// Largest utilisation of any check.
+    pub utilisation: Option<f64>,
+    pub status: Status,
+    /// Index into `lines` of the governing check.
+    pub governing: Option<usize>,
+    pub lines: Vec<CheckLine>,
+    /// Why it was not checked, or what to look at.
+    pub notes: Vec<String>,
+}
+
+impl MemberCheck {
+    /// The governing line.
+    pub fn governing_line(&self) -> Option<&CheckLine> {
+        self.governing.map(|i| &self.lines[i])
+    }
+}
+
+/// The checks of a whole project.
+#[derive(Debug, Clone, Serialize)]
+pub struct CheckReport {
+    pub cases: Vec<CaseOutcome>,
+    pub members: Vec<MemberCheck>,
+    pub design_factors: DesignFactors,
+    pub near_limit: f64,
+}
+
+impl CheckReport {
+    /// True when every case has a stable equilibrium and no member fails.
+    pub fn passes(&self) -> bool {
+        self.cases.iter().all(|c| c.error.is_none()) && self.members.iter().all(|m| m.status != Status::Fail)
+    }
+
+    /// Number of members with each status.
+    pub fn count(&self, status: Status) -> usize {
+        self.members.iter().filter(|m| m.status == status).count()
+    }
+
+    /// Largest utilisation of any member.
+    pub fn peak_utilisation(&self) -> Option<f64> {
+        self.members.iter().filter_map(|m| m.utilisation).reduce(f64::max)
+    }
+}
+
+/// Solves every load case from the unloaded state.
+pub fn solve_cases(model: &Model) -> Vec<CaseOutcome> {
+    let statics = Statics::new(model);
+    (0..model.cases.len())
+        .map(|i| {
+            let name = model.cases[i].name.clone();
+            match statics.solve(i, None) {
+                Ok(eq) if eq.stability.is_stable() => CaseOutcome {
+                    name,
+                    equilibrium: Some(eq),
+                    error: None,
+                },
+                Ok(eq) => CaseOutcome {
+                    name,
+                    equilibrium: None,
+                    error: Some(eq.stability.describe()),
+                },
+                Err(e) => CaseOutcome {
+                    name,
+                    equilibrium: None,
+                    error: Some(e.to_string()),
+                },
+            }
+        })
+        .collect()
+}
+
+/// Validates, solves every case and checks every member.
+pub fn check_project(project: &Project, catalogue: &Catalogue) -> Result<CheckReport, ProjectError> {
+    let model = project.validate()?;
+    let cases = solve_cases(&model);
+    Ok(check(project, &model, catalogue, cases))
+}
+
+/// The catalogue a project sees: the built-in ropes, then `extra` (catalogue files), then the
+/// project's own parts; later entries replace earlier ones with the same id.
+pub fn project_catalogue(project: &Project, extra: &Catalogue) -> Catalogue {
+    let mut c = Catalogue::builtin();
+    c.extend(extra.parts().iter().cloned());
+    c.extend(project.sizing.parts.iter().cloned());
+    c
+}
+
+/// Checks every member of `model` (built from `project`) against the solved `cases`.
+pub fn check(project: &Project, model: &Model, catalogue: &Catalogue, cases: Vec<CaseOutcome>) -> CheckReport {
+    let sizing = &project.sizing;
+    let empty = MemberDesign::default();
+    let members = model
+        .members
+        .iter()
+        .enumerate()
+        .map(|(i, member)| {
+            let design = project
+                .members
+                .iter()
+                .find(|d| d.id == member.id)
+                .and_then(|d| d.design.as_ref())
+                .unwrap_or(&empty);
+            let class = member.kind.class();
+            let df = design.design_factor.unwrap_or(sizing.design_factors.of(class));
+            let forces: Vec<(f64, f64, &str)> = cases
+                .iter()
+                .filter_map(|c| {
+                    let eq = c.equilibrium.as_ref()?;
+                    let r = &eq.members[i];
+                    Some((r.force, r.length, c.name.as_str()))
+                })
+                .collect();
+            let mut m = MemberCheck {
+                id: member.id.clone(),
+                class,
+                made_of: None,
+                force_min: forces.iter().min_by(|a, b| a.0.total_cmp(&b.0)).map(|f| (f.0, f.2.to_string())),
+                force_max: forces.iter().max_by(|a, b| a.0.total_cmp(&b.0)).map(|f| (f.0, f.2.to_string())),
+                capacity: None,
+                design_factor: df,
+                efficiency: None,
+                utilisation: None,
+                status: Status::NotChecked,
+                governing: None,
+                lines: Vec::new(),
+                notes: Vec::new(),
+            };
+            match member.kind {
+                MemberKind::Cable { ea, .. } => check_cable(&mut m, design, ea, sizing, catalogue, &forces),
+                MemberKind::Spring { k, l0 } => check_spring(&mut m, design, k, l0, &forces),
+                MemberKind::Strut { .. } => check_strut(&mut m, design, &forces),
+            }
+            settle(&mut m, sizing.near_limit);
+            m
+        })
+        .collect();
+    CheckReport {
+        cases,
+        members,
+        design_factors: sizing.design_factors,
+        near_limit: sizing.near_limit,
+    }
+}
+
+/// A line whose status follows from its utilisation.
+fn ratio_line(check: &'static str, case: &str, demand: f64, limit: f64, unit: &'static str, note: String) -> CheckLine {
+    let u = demand / limit;
+    CheckLine {
+        check,
+        case: case.to_string(),
+        demand,
+        limit,
+        unit,
+        utilisation: Some(u),
+        status: if u <= 1.0 + UTILISATION_TOLERANCE {
+            Status::Pass
+        } else {
+            Status::Fail
+        },
+        note,
+    }
+}
+
+/// A pass/fail line with no utilisation.
+fn flag_line(check: &'static str, case: &str, demand: f64, limit: f64, unit: &'static str, ok: bool, note: String) -> CheckLine {
+    CheckLine {
+        check,
+        case: case.to_string(),
+        demand,
+        limit,
+        unit,
+        utilisation: None,
+        status: if ok { Status::Pass } else { Status::Fail },
+        note,
+    }
+}
+
+/// The case with the largest value of `f` among `forces`.
+fn worst<'a>(forces: &[(f64, f64, &'a str)], f: impl Fn(&(f64, f64, &str)) -> f64) -> Option<(f64, f64, &'a str)> {
+    forces.iter().copied().max_by(|a, b| f(a).total_cmp(&f(b)))
+}
+
+fn check_cable(
+    m: &mut MemberCheck,
+    design: &MemberDesign,
+    ea: f64,
+    sizing: &super::design::SizingDoc,
+    catalogue: &Catalogue,
+    forces: &[(f64, f64, &str)],
+) {
+    let eff = design.termination_efficiency.unwrap_or(sizing.termination_efficiency);
+    m.efficiency = Some(eff);
+    let breaking = match (&design.part, design.breaking_force) {
+        (Some(id), _) => match catalogue.find(id) {
+            Some(part) => {
+                m.made_of = Some(if part.description.is_empty() {
+                    part.id.clone()
+                } else {
+                    part.description.clone()
+                });
+                if (part.ea - ea).abs() > 1e-6 * part.ea {
+                    m.notes.push(format!(
+                        "EA {ea:.4e} N differs from the part's {:.4e} N; assign the part again",
+                        part.ea
+                    ));
+                }
+                Some(part.breaking_force)
+            }
+            None => {
+                m.notes.push(format!(
+                    "catalogue entry `{id}` is not in the catalogue; add it to the project's parts or choose another"
+                ));
+                None
+            }
+        },
+        (None, Some(f)) => {
+            m.made_of = Some("user breaking force".into());
+            Some(f)
+        }
+        (None, None) => None,
+    };
+    if let Some(f) = breaking {
+        m.capacity = Some(Capacity {
+            value: f,
+            unit: "N",
+            what: "minimum breaking force",
+        });
+        if let Some((t, _, case)) = worst(forces, |f| f.0) {
+            let limit = f * eff / m.design_factor;
+            m.lines.push(ratio_line(
+                "tension",
+                case,
+                t.max(0.0),
+                limit,
+                "N",
+                format!("T·DF/(F_min·e) with DF {} and e {}", m.design_factor, eff),
+            ));
+        }
+    } else if m.notes.is_empty() {
+        m.notes
+            .push("no catalogue entry or breaking force: choose a part or give the breaking force".into());
+    }
+    if !design.may_slacken
+        && let Some((t, _, case)) = worst(forces, |f| -f.0)
+    {
+        let threshold = sizing.slack_threshold;
+        m.lines.push(flag_line(
+            "slack",
+            case,
+            t,
+            threshold,
+            "N",
+            t > threshold,
+            format!("lowest tension must stay above {threshold} N (mark the cable `may slacken` if intended)"),
+        ));
+    }
+}
+
+fn check_spring(m: &mut MemberCheck, design: &MemberDesign, k: f64, l0: f64, forces: &[(f64, f64, &str)]) {
+    let Some(s) = design.spring else {
+        m.notes.push("no spring design: design one with the spring designer".into());
+        return;
+    };
+    let p = s.properties();
+    m.made_of = Some(format!(
+        "{}, d {} mm, D {} mm, {} active coils, {} ends",
+        s.material.name(),
+        s.wire_mm,
+        s.mean_mm,
+        s.active_coils,
+        s.ends.name()
+    ));
+    m.capacity = Some(Capacity {
+        value: p.allowable,
+        unit: "Pa",
+        what: "allowable shear stress",
+    });
+    if (p.rate - k).abs() > 0.01 * p.rate || (s.free_length_mm * 1e-3 - l0).abs() > 1e-6 + 0.01 * l0 {
+        m.notes.push(format!(
+            "the member's rate {:.4e} N/m or free length {:.4} m differ from the design's {:.4e} N/m and {:.4} m; assign the design again",
+            k,
+            l0,
+            p.rate,
+            s.free_length_mm * 1e-3
+        ));
+    }
+    if let Some((f, _, case)) = worst(forces, |f| f.0.abs()) {
+        m.lines.push(ratio_line(
+            "stress",
+            case,
+            s.stress(f),
+            p.allowable / m.design_factor,
+            "Pa",
+            format!(
+                "Bergsträsser τ = KB·8FD/(πd³) against {:.0}% of Sut ÷ DF",
+                100.0 * s.material.allowable_fraction()
+            ),
+        ));
+    }
+    if s.ends.is_compression() {
+        if let Some((f, _, case)) = worst(forces, |f| f.0)
+            && f > 0.0
+        {
+            m.lines.push(flag_line(
+                "direction",
+                case,
+                f,
+                0.0,
+                "N",
+                false,
+                "a compression spring is pulled: use an extension spring or change the geometry".into(),
+            ));
+        }
+        if let Some((_, length, case)) = worst(forces, |f| -f.1) {
+            let l0 = s.free_length_mm * 1e-3;
+            let travel = (l0 - length).max(0.0);
+            m.lines.push(ratio_line(
+                "solid length",
+                case,
+                travel,
+                l0 - p.solid_length,
+                "m",
+                format!("deflection against free length − solid length ({:.1} mm)", p.solid_length * 1e3),
+            ));
+        }
+        if let Some(limit) = p.buckling_free_length {
+            m.lines.push(ratio_line(
+                "buckling",
+                "",
+                s.free_length_mm * 1e-3,
+                limit,
+                "m",
+                "free length against 2.63 D/α, flat parallel ends (Shigley eq. 10-13)".into(),
+            ));
+        }
+    } else if let Some((f, _, case)) = worst(forces, |f| -f.0)
+        && f < 0.0
+    {
+        m.lines.push(flag_line(
+            "direction",
+            case,
+            f,
+            0.0,
+            "N",
+            false,
+            "an extension spring is pushed: use a compression spring or change the geometry".into(),
+        ));
+    }
+}
+
+fn check_strut(m: &mut MemberCheck, design: &MemberDesign, forces: &[(f64, f64, &str)]) {
+    let Some(sec) = design.section else {
+        m.notes.push("no section: give E, I and the effective-length factor".into());
+        return;
+    };
+    m.made_of = Some(format!(
+        "E {:.3e} Pa, I {:.3e} m⁴, K {}",
+        sec.modulus, sec.second_moment, sec.length_factor
+    ));
+    let euler = |length: f64| std::f64::consts::PI.powi(2) * sec.modulus * sec.second_moment / (sec.length_factor * length).powi(2);
+    // Governing buckling case: the largest compression over its Euler load at that length.
+    if let Some((f, length, case)) = worst(forces, |f| -f.0 / euler(f.1))
+        && f < 0.0
+    {
+        let p = euler(length);
+        m.capacity = Some(Capacity {
+            value: p,
+            unit: "N",
+            what: "Euler load",
+        });
+        m.lines.push(ratio_line(
+            "buckling",
+            case,
+            -f,
+            p / m.design_factor,
+            "N",
+            format!("π²EI/(KL)² at L = {length:.4} m"),
+        ));
+    }
+    if let Some(cap) = sec.capacity
+        && let Some((f, _, case)) = worst(forces, |f| f.0.abs())
+    {
+        if m.capacity.is_none() {
+            m.capacity = Some(Capacity {
+                value: cap,
+                unit: "N",
+                what: "axial capacity",
+            });
+        }
+        m.lines.push(ratio_line(
+            "capacity",
+            case,
+            f.abs(),
+            cap / m.design_factor,
+            "N",
+            "|F|·DF against the given capacity".into(),
+        ));
+    }
+}
+
+/// Sets the member's status, utilisation and governing line from its lines.
+fn settle(m: &mut MemberCheck, near: f64) {
+    m.utilisation = m.lines.iter().filter_map(|l| l.utilisation).reduce(f64::max);
+    m.governing = m
+        .lines
+        .iter()
+        .enumerate()
+        .max_by(|(_, a), (_, b)| {
+            (a.status == Status::Fail)
+                .cmp(&(b.status == Status::Fail))
+                .then(a.utilisation.unwrap_or(0.0).total_cmp(&b.utilisation.unwrap_or(0.0)))
+        })
+        .map(|(i, _)| i);
+    m.status = if m.lines.is_empty() {
+        Status::NotChecked
+    } else if m.lines.iter().any(|l| l.status == Status::Fail) {
+        Status::Fail
+    } else if m.capacity.is_none() {
+        // Only the slack or direction check ran: the strength is unknown.
+        Status::NotChecked
+    } else if m.utilisation.is_some_and(|u| u > near) {
+        Status::Near
+    } else {
+        Status::Pass
+    };
+}
