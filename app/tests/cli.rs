@@ -35,8 +35,9 @@ fn solve_json_has_the_documented_fields_and_balanced_reactions() {
         assert!(m["length"].as_f64().unwrap() > m["unstressed_length"].as_f64().unwrap());
         assert_eq!(m["slack"], false);
     }
-    // Reactions plus loads (45 kg sign, 250 N gust) sum to zero.
-    let mut sum = [250.0, -45.0 * 9.81, 0.0];
+    // Reactions plus loads (45 kg sign, 250 N gust, 0.144 kg/m of rope) sum to zero.
+    let rope: f64 = members.iter().map(|m| m["unstressed_length"].as_f64().unwrap() * 0.144).sum();
+    let mut sum = [250.0, -(45.0 + rope) * 9.81, 0.0];
     for n in doc["nodes"].as_array().unwrap() {
         if let Some(r) = n["reaction"].as_array() {
             for (s, v) in sum.iter_mut().zip(r) {
@@ -152,4 +153,113 @@ fn pluck_reports_frequency_energy_and_writes_csv() {
     assert_eq!(code, 2);
     assert!(err.contains("`nowhere`"));
     std::fs::remove_dir_all(&dir).ok();
+}
+
+/// A temporary copy of a sample, edited by `edit`.
+fn edited_sample(name: &str, tag: &str, edit: impl FnOnce(&mut rigwright_core::Project)) -> PathBuf {
+    let mut p = rigwright_core::Project::load(&sample(name)).unwrap();
+    edit(&mut p);
+    let path = std::env::temp_dir().join(format!("rigwright-cli-{}-{tag}.rig.ron", std::process::id()));
+    std::fs::write(&path, p.to_ron()).unwrap();
+    path
+}
+
+#[test]
+fn check_exits_0_when_all_pass_1_when_one_fails_and_2_on_bad_input() {
+    let file = sample("sign-on-two-cables.rig.ron");
+    let (code, out, err) = rigwright(&["check", file.to_str().unwrap()]);
+    assert_eq!(code, 0, "{err}");
+    assert!(
+        out.contains("short-rope") && out.contains("utilisation") && out.contains("All checks pass"),
+        "{out}"
+    );
+    assert!(out.contains("licensed engineer"), "the cautions follow the checks");
+    // A design factor of 400 on 6 mm rope (22.7 kN) cannot hold 543 N: fails, exit 1.
+    let failing = edited_sample("sign-on-two-cables.rig.ron", "df", |p| p.sizing.design_factors.cable = 400.0);
+    let (code, out, _) = rigwright(&["check", failing.to_str().unwrap(), "--json"]);
+    assert_eq!(code, 1);
+    let doc: serde_json::Value = serde_json::from_str(&out).unwrap();
+    assert_eq!(doc["format"], "rigwright.check/1");
+    assert_eq!(doc["passes"], false);
+    assert_eq!(doc["report"]["members"][0]["status"], "fail");
+    let (code, _, err) = rigwright(&["check", "/nonexistent.rig.ron"]);
+    assert_eq!(code, 2, "{err}");
+}
+
+#[test]
+fn sweep_csv_has_units_in_its_header_and_one_row_per_step() {
+    let file = sample("sign-on-two-cables.rig.ron");
+    let (code, out, err) = rigwright(&[
+        "sweep",
+        file.to_str().unwrap(),
+        "--param",
+        "node:sign:mass",
+        "--from",
+        "20",
+        "--to",
+        "80",
+        "--steps",
+        "4",
+        "--output",
+        "force:short-rope",
+        "--output",
+        "lowest-frequency",
+        "--csv",
+    ]);
+    assert_eq!(code, 0, "{err}");
+    let lines: Vec<&str> = out.lines().collect();
+    assert_eq!(
+        lines[0],
+        "\"node:sign:mass (kg)\",\"force:short-rope (N)\",\"lowest-frequency (Hz)\",\"note\""
+    );
+    assert_eq!(lines.len(), 5);
+    // Heavier sign, more tension: the rope force grows with the mass.
+    let force = |l: &str| l.split(',').nth(1).unwrap().parse::<f64>().unwrap();
+    assert!(force(lines[4]) > 3.0 * force(lines[1]));
+    let (code, _, err) = rigwright(&[
+        "sweep",
+        file.to_str().unwrap(),
+        "--param",
+        "node:sign:colour",
+        "--from",
+        "0",
+        "--to",
+        "1",
+    ]);
+    assert_eq!(code, 2);
+    assert!(err.contains("not a parameter"), "{err}");
+}
+
+#[test]
+fn autosize_writes_a_project_that_passes_check() {
+    let failing = edited_sample("sign-on-two-cables.rig.ron", "auto", |p| p.sizing.design_factors.cable = 60.0);
+    let out_file = failing.with_extension("sized.rig.ron");
+    let (code, out, err) = rigwright(&["autosize", failing.to_str().unwrap(), "-o", out_file.to_str().unwrap()]);
+    assert_eq!(code, 0, "{out}{err}");
+    assert!(out.contains("short-rope") && out.contains("choice stable"), "{out}");
+    let (code, out, _) = rigwright(&["check", out_file.to_str().unwrap()]);
+    assert_eq!(code, 0, "{out}");
+}
+
+#[test]
+fn spring_proposes_a_design_with_units() {
+    let (code, out, err) = rigwright(&[
+        "spring",
+        "--rate",
+        "5000",
+        "--force",
+        "200",
+        "--material",
+        "music-wire",
+        "--max-od",
+        "40",
+    ]);
+    assert_eq!(code, 0, "{err}");
+    assert!(
+        out.contains("wire diameter d") && out.contains(" mm") && out.contains("N/m") && out.contains("MPa"),
+        "{out}"
+    );
+    let (code, _, err) = rigwright(&["spring", "--rate", "5000", "--force", "200", "--material", "unobtainium"]);
+    assert_eq!(code, 2);
+    assert!(err.contains("music-wire"), "{err}");
 }

@@ -12,6 +12,9 @@
 //!
 //! Units are SI throughout: metres, newtons, kilograms, seconds.
 
+/// The cautions shown in the app's About box, after `rigwright check` and on every sheet.
+pub const CAUTION: &str = "Rigging and tensioned structures can fail suddenly and hurt people. Results are a design aid for qualified persons; they do not replace the checks that local codes and standards require, the manufacturer's ratings of actual components, or review by a licensed engineer.";
+
 pub mod dynamics;
 pub mod element;
 pub mod gallery;

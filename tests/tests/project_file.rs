@@ -3,13 +3,29 @@
 //! Set `UPDATE_SAMPLES=1` to rewrite the samples in canonical form (and regenerate the net).
 
 use rigwright_core::gallery::cable_net;
+use rigwright_core::sizing::{MemberDesign, Part};
 use rigwright_core::{Project, Statics};
 use rigwright_verification::{SAMPLES, sample};
 
 fn net_sample() -> Project {
     let mut p = cable_net(8, 1.25, 4.0e6, 6000.0, 6.0);
     p.title = "Canopy net: 6×6 free nodes on a pretensioned cable grid".into();
-    p.notes = "Invented example: a flat net of 8 mm stainless cables on a 1.25 m grid, each pretensioned to 6 kN, anchored along a square frame; 6 kg of clamps and panel at each free node.".into();
+    p.notes = "Invented example: a flat net of 8 mm stainless 1×19 strand (an example supplier entry in the project's own parts; swaged ends, efficiency 0.9) on a 1.25 m grid, each pretensioned to 6 kN, anchored along a square frame; 6 kg of clamps and panel at each free node.".into();
+    p.sizing.termination_efficiency = 0.9;
+    p.sizing.parts.push(Part {
+        id: "ss-1x19-8".into(),
+        description: "stainless 1×19 strand, 8 mm (example supplier entry)".into(),
+        breaking_force: 50_000.0,
+        ea: 4.0e6,
+        mass_per_length: 0.31,
+        source: "invented for this example; use your supplier's rated values".into(),
+    });
+    for m in &mut p.members {
+        m.design = Some(MemberDesign {
+            part: Some("ss-1x19-8".into()),
+            ..MemberDesign::default()
+        });
+    }
     p.cases[0].name = "self-weight".into();
     p.cases.push(rigwright_core::model::CaseDoc {
         name: "maintenance load".into(),

@@ -1,7 +1,7 @@
 //! Command-line entry: headless subcommands over project files.
 //!
 //! Exit codes: 0 solved, 2 bad input (message on stderr), 3 no valid equilibrium
-//! (diagnostic on stderr).
+//! (diagnostic on stderr); `check` and `autosize` exit 1 when a check fails.
 
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
@@ -11,6 +11,7 @@ use rigwright_core::{Equilibrium, Model, Project, SolveError, Statics};
 
 mod dynamics;
 mod report;
+pub mod sizing;
 
 /// Exit code for bad input.
 pub const EXIT_BAD_INPUT: u8 = 2;
@@ -93,6 +94,108 @@ pub enum Command {
         /// Print one JSON document (SI units) with the histories.
         #[arg(long)]
         json: bool,
+    },
+    /// Check every member in every load case: tension, slack, spring stress and solid length,
+    /// strut buckling. Exit 0 when all pass, 1 when any fails, 2 on bad input.
+    Check {
+        /// Project file (*.rig.ron).
+        file: PathBuf,
+        /// Extra catalogue file(s) (*.parts.ron) to find parts in.
+        #[arg(long)]
+        catalogue: Vec<PathBuf>,
+        /// Print one JSON document (SI units).
+        #[arg(long)]
+        json: bool,
+    },
+    /// Choose the lightest catalogue part for cables that passes every case, re-solving until
+    /// the choice is stable.
+    Autosize {
+        /// Project file (*.rig.ron).
+        file: PathBuf,
+        /// Cable to size (repeat; default: every cable).
+        #[arg(long)]
+        member: Vec<String>,
+        /// Extra catalogue file(s) (*.parts.ron).
+        #[arg(long)]
+        catalogue: Vec<PathBuf>,
+        /// Write the sized project here.
+        #[arg(short, long)]
+        output: Option<PathBuf>,
+        /// Print one JSON document.
+        #[arg(long)]
+        json: bool,
+    },
+    /// Vary one parameter over a range and tabulate outputs.
+    Sweep {
+        /// Project file (*.rig.ron).
+        file: PathBuf,
+        /// member:ID:pretension | member:ID:rate | member:ID:ea | node:ID:x|y|z | node:ID:mass |
+        /// load:CASE:NODE:x|y|z
+        #[arg(long)]
+        param: String,
+        /// First value (SI).
+        #[arg(long, allow_hyphen_values = true)]
+        from: f64,
+        /// Last value (SI).
+        #[arg(long, allow_hyphen_values = true)]
+        to: f64,
+        /// Number of values, at least 2.
+        #[arg(long, default_value_t = 11)]
+        steps: usize,
+        /// Output (repeat): lowest-frequency, peak-tension, peak-utilisation,
+        /// displacement:NODE[:x|y|z], stiffness:NODE:x|y|z, force:MEMBER.
+        #[arg(long)]
+        output: Vec<String>,
+        /// Load case name (default: the first case).
+        #[arg(long)]
+        case: Option<String>,
+        /// Print CSV.
+        #[arg(long, conflicts_with = "json")]
+        csv: bool,
+        /// Print one JSON document.
+        #[arg(long)]
+        json: bool,
+    },
+    /// Propose a helical spring for a rate and working force (Shigley ch. 10 formulas).
+    Spring {
+        /// Rate (N/m).
+        #[arg(long)]
+        rate: f64,
+        /// Largest working force (N).
+        #[arg(long)]
+        force: f64,
+        /// music-wire, oil-tempered, hard-drawn, chrome-vanadium, chrome-silicon, stainless-302.
+        #[arg(long, default_value = "oil-tempered")]
+        material: String,
+        /// plain, plain-ground, squared, squared-ground, extension.
+        #[arg(long, default_value = "squared-ground")]
+        ends: String,
+        /// Largest outside diameter (mm).
+        #[arg(long)]
+        max_od: Option<f64>,
+        /// Smallest inside diameter (mm).
+        #[arg(long)]
+        min_id: Option<f64>,
+        /// Longest free length (mm).
+        #[arg(long)]
+        max_free_length: Option<f64>,
+        /// Design factor on the allowable stress.
+        #[arg(long, default_value_t = 1.2)]
+        design_factor: f64,
+        /// Print one JSON document.
+        #[arg(long)]
+        json: bool,
+    },
+    /// List catalogue parts (built-in ropes, a project's own parts, catalogue files).
+    Parts {
+        /// Project whose own parts to include.
+        file: Option<PathBuf>,
+        /// Extra catalogue file(s) (*.parts.ron).
+        #[arg(long)]
+        catalogue: Vec<PathBuf>,
+        /// Show only ids or descriptions containing this text.
+        #[arg(long)]
+        filter: Option<String>,
     },
 }
 
@@ -189,9 +292,80 @@ fn case_list(model: &Model) -> String {
     model.cases.iter().map(|c| format!("`{}`", c.name)).collect::<Vec<_>>().join(", ")
 }
 
+/// Exit 1 with `why` unless `ok`.
+fn checked(ok: bool, why: &str) -> Result<(), Failure> {
+    if ok {
+        Ok(())
+    } else {
+        Err(Failure {
+            code: sizing::EXIT_CHECK_FAILED,
+            message: why.to_string(),
+        })
+    }
+}
+
 /// Runs one subcommand.
 pub fn run(command: Command) -> Result<(), Failure> {
     match command {
+        Command::Check { file, catalogue, json } => {
+            let (text, passes) = sizing::check_command(&file, &catalogue, json)?;
+            print_output(&text, json);
+            checked(passes, "not every check passes")
+        }
+        Command::Autosize {
+            file,
+            member,
+            catalogue,
+            output,
+            json,
+        } => {
+            let (text, ok) = sizing::autosize_command(&file, &member, &catalogue, output.as_deref(), json)?;
+            print_output(&text, json);
+            checked(ok, "some cables cannot pass with the catalogue's parts")
+        }
+        Command::Sweep {
+            file,
+            param,
+            from,
+            to,
+            steps,
+            output,
+            case,
+            csv,
+            json,
+        } => {
+            let text = sizing::sweep_command(&file, case.as_deref(), &param, (from, to, steps), &output, csv, json)?;
+            print_output(&text, json);
+            Ok(())
+        }
+        Command::Spring {
+            rate,
+            force,
+            material,
+            ends,
+            max_od,
+            min_id,
+            max_free_length,
+            design_factor,
+            json,
+        } => {
+            let req = rigwright_core::sizing::SpringRequirement {
+                rate,
+                max_force: force,
+                material: sizing::parse_material(&material)?,
+                ends: sizing::parse_ends(&ends)?,
+                max_outside_mm: max_od,
+                min_inside_mm: min_id,
+                max_free_length_mm: max_free_length,
+                design_factor,
+            };
+            print_output(&sizing::spring_command(&req, json)?, json);
+            Ok(())
+        }
+        Command::Parts { file, catalogue, filter } => {
+            print!("{}", sizing::parts_command(file.as_deref(), &catalogue, filter.as_deref())?);
+            Ok(())
+        }
         Command::Modes { file, case, count, json } => {
             let (model, case) = load_case(&file, case.as_deref())?;
             print_output(&dynamics::modes_command(&model, case, count, json)?, json);

@@ -5,7 +5,7 @@ use eframe::egui::{self, RichText};
 use super::{RigApp, Tool};
 
 /// The cautions shown in the About box (from the product design, verbatim).
-pub const CAUTION: &str = "Rigging and tensioned structures can fail suddenly and hurt people. Results are a design aid for qualified persons; they do not replace the checks that local codes and standards require, the manufacturer's ratings of actual components, or review by a licensed engineer.";
+pub const CAUTION: &str = rigwright_core::CAUTION;
 
 const SHORTCUTS: &[(&str, &str)] = &[
     ("Ctrl+N / Ctrl+O", "new / open project"),

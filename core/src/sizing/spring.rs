@@ -235,6 +235,9 @@ pub fn design_spring(req: &SpringRequirement) -> Result<SpringDesign, String> {
     if !(req.rate.is_finite() && req.rate > 0.0 && req.max_force.is_finite() && req.max_force > 0.0) {
         return Err("give a positive rate and working force".into());
     }
+    // Shigley's 3 ≤ Na ≤ 15 is for compression springs; extension springs, which cannot
+    // buckle, are commonly wound with more (up to 40 here, common practice, from memory).
+    let max_coils = if req.ends.is_compression() { 15.0 } else { 40.0 };
     let mut best: Option<(f64, SpringDesign)> = None;
     let mut limits = [0usize; 4]; // space, coils, stress, length/buckling
     for d in WIRE_DIAMETERS_MM {
@@ -249,7 +252,7 @@ pub fn design_spring(req: &SpringRequirement) -> Result<SpringDesign, String> {
             let g = req.material.shear_modulus();
             let exact = (d * 1e-3).powi(4) * g / (8.0 * (dm * 1e-3).powi(3) * req.rate);
             let na = (exact * 4.0).round() / 4.0;
-            if !(3.0..=15.0).contains(&na) {
+            if !(3.0..=max_coils).contains(&na) {
                 limits[1] += 1;
                 continue;
             }

@@ -59,6 +59,16 @@ fn axis(s: &str) -> Result<Axis, String> {
 impl FromStr for Param {
     type Err = String;
     fn from_str(s: &str) -> Result<Self, String> {
+        Self::parse(s).map_err(|why| {
+            format!(
+                "`{s}` is not a parameter ({why}); use member:ID:pretension, member:ID:rate, member:ID:ea, node:ID:x|y|z, node:ID:mass or load:CASE:NODE:x|y|z"
+            )
+        })
+    }
+}
+
+impl Param {
+    fn parse(s: &str) -> Result<Self, String> {
         let parts: Vec<&str> = s.split(':').collect();
         Ok(match parts.as_slice() {
             ["member", id, "pretension"] => Param::Pretension(id.to_string()),
@@ -71,11 +81,7 @@ impl FromStr for Param {
                 node: node.to_string(),
                 axis: axis(a)?,
             },
-            _ => {
-                return Err(format!(
-                    "`{s}` is not a parameter; use member:ID:pretension, member:ID:rate, member:ID:ea, node:ID:x|y|z, node:ID:mass or load:CASE:NODE:x|y|z"
-                ));
-            }
+            _ => return Err("unknown form".into()),
         })
     }
 }
