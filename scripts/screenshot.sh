@@ -7,7 +7,7 @@ set -eu
 out=${1:?usage: scripts/screenshot.sh OUT.png [PROJECT.rig.ron]}
 project=${2:-}
 root=$(cd "$(dirname "$0")/.." && pwd)
-bin="$root/target/release/rigwright"
+bin="${SCREENSHOT_BIN:-$root/target/release/rigwright}"
 [ -x "$bin" ] || { echo "screenshot: build first: cargo build --release -p rigwright" >&2; exit 2; }
 display=:${SCREENSHOT_DISPLAY:-97}
 runtime=$(mktemp -d)

@@ -314,3 +314,82 @@ fn f1_opens_the_shortcut_help_and_the_about_box_carries_the_cautions() {
         "the About box shows the cautions"
     );
 }
+
+#[test]
+fn the_checks_tab_shows_status_in_words_and_auto_size_fixes_a_failure() {
+    let mut h = harness();
+    h.get_by_label("Checks").click();
+    h.run();
+    let p = h.state().doc.project.clone();
+    let report = rigwright_core::sizing::check_project(&p, &rigwright_core::sizing::project_catalogue(&p, &Default::default())).unwrap();
+    let u = format!("{:.3}", report.members[0].utilisation.unwrap());
+    assert!(h.query_by_label(&u).is_some(), "utilisation {u} of the first member is listed");
+    assert!(h.query_all_by_label("pass").count() >= 2);
+    assert!(h.query_by_label("All checks pass").is_some());
+    // A design factor of 100 on 6 mm rope fails both cables; the words say so.
+    h.state_mut().queue(Command::Edit {
+        merge: None,
+        apply: Box::new(|p| p.sizing.design_factors.cable = 100.0),
+    });
+    h.run();
+    h.run();
+    // The first row (the short rope, the more loaded) is in view; the table scrolls.
+    assert!(h.query_all_by_label("FAIL").count() >= 1);
+    assert!(h.query_by_label("NOT ALL CHECKS PASS").is_some());
+    h.get_by_label("Auto-size cables").click();
+    h.run();
+    h.run();
+    assert!(h.query_by_label("All checks pass").is_some(), "auto-size chose parts that pass");
+    let parts: Vec<_> = h
+        .state()
+        .doc
+        .project
+        .members
+        .iter()
+        .map(|m| m.design.as_ref().unwrap().part.clone().unwrap())
+        .collect();
+    assert!(parts.iter().all(|id| id != "6x19-IWRC-6-1770"), "{parts:?}");
+    // One undo step brings the old parts back.
+    h.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    h.run();
+    assert_eq!(
+        h.state().doc.project.members[0].design.as_ref().unwrap().part.as_deref(),
+        Some("6x19-IWRC-6-1770")
+    );
+}
+
+#[test]
+fn the_spring_designer_assigns_its_spring_to_the_member() {
+    let mut h = harness();
+    let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../sample-projects/machine-on-four-springs.rig.ron");
+    h.state_mut().queue(Command::Open(path));
+    h.run();
+    h.get_by_label("Checks").click();
+    h.run();
+    h.state_mut().selection = Selection::Member(0);
+    h.run();
+    h.get_by_label("Spring designer…").click();
+    h.run();
+    h.get_by_label("Assign to `isolator-1`").click();
+    h.run();
+    let m = &h.state().doc.project.members[0];
+    let s = m.design.as_ref().unwrap().spring.expect("a spring design");
+    match m.kind {
+        rigwright_core::model::MemberDocKind::Spring { rate, rest } => {
+            assert!((rate - s.properties().rate).abs() < 1e-9 * rate);
+            assert_eq!(rest, rigwright_core::Rest::Length(s.free_length_mm * 1e-3));
+        }
+        _ => panic!("still a spring"),
+    }
+}
+
+#[test]
+fn a_sweep_run_from_the_sweep_tab_plots_its_outputs() {
+    let mut h = harness();
+    h.get_by_label("Sweep").click();
+    h.run();
+    h.get_by_label("Run Sweep").click();
+    h.run();
+    assert!(h.query_by_label("peak-tension (N)").is_some());
+    assert!(h.query_by_label("lowest-frequency (Hz)").is_some());
+}

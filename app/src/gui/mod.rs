@@ -12,6 +12,7 @@ mod pluck;
 mod properties;
 mod readouts;
 pub mod samples;
+mod sizing;
 mod solver;
 pub mod units;
 mod view;
@@ -253,6 +254,8 @@ pub struct RigApp {
     pub modes: Option<pluck::ModesState>,
     /// Start a Pluck when a pulled node is let go.
     pub pluck_on_release: bool,
+    /// Checks, Sweep and the spring designer.
+    pub sizing: sizing::SizingState,
     /// A message for the status bar: (text, is an error).
     pub message: Option<(String, bool)>,
     pub show_about: bool,
@@ -309,6 +312,7 @@ impl RigApp {
             solved: None,
             pull: None,
             boxed: Vec::new(),
+            sizing: sizing::SizingState::default(),
             pluck: None,
             modes: None,
             pluck_on_release: true,
@@ -932,6 +936,7 @@ impl eframe::App for RigApp {
             .show(ui, |ui| view::ui(self, ui));
 
         about::windows(self, &ctx);
+        sizing::windows(self, &ctx);
         self.discard_prompt(&ctx);
 
         let had_commands = !self.commands.is_empty();

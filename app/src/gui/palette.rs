@@ -58,3 +58,9 @@ pub fn force_colour(force: f64, max: f64) -> Color32 {
     let t = if max > 0.0 { (force.abs() / max) as f32 } else { 0.0 };
     if force >= 0.0 { ramp(&TENSION, t) } else { ramp(&COMPRESSION, t) }
 }
+/// A check that passes (always beside the word "pass").
+pub const OK: Color32 = Color32::from_rgb(22, 120, 72);
+/// A check near its limit (always beside the words "near limit").
+pub const WARN: Color32 = CAUTION;
+/// Something not checked.
+pub const MUTED: Color32 = SLACK;

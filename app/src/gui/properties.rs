@@ -304,6 +304,7 @@ fn member(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
         });
         ui.label(format!("length {}", units.show(Quantity::Length, r.length)));
     }
+    super::sizing::member_design(app, ui, i);
 }
 
 fn drawn_length(p: &Project, i: usize) -> Option<f64> {

@@ -21,16 +21,20 @@ pub enum ReadoutTab {
     Pull,
     Modes,
     Pluck,
+    Checks,
+    Sweep,
 }
 
 impl ReadoutTab {
-    pub const ALL: [ReadoutTab; 6] = [
+    pub const ALL: [ReadoutTab; 8] = [
         ReadoutTab::Members,
         ReadoutTab::Nodes,
         ReadoutTab::Stiffness,
         ReadoutTab::Pull,
         ReadoutTab::Modes,
         ReadoutTab::Pluck,
+        ReadoutTab::Checks,
+        ReadoutTab::Sweep,
     ];
 
     pub fn label(self) -> &'static str {
@@ -41,6 +45,8 @@ impl ReadoutTab {
             ReadoutTab::Pull => "Pull curve",
             ReadoutTab::Modes => "Modes",
             ReadoutTab::Pluck => "Pluck",
+            ReadoutTab::Checks => "Checks",
+            ReadoutTab::Sweep => "Sweep",
         }
     }
 
@@ -52,6 +58,8 @@ impl ReadoutTab {
             ReadoutTab::Pull => "Restoring force and force–displacement curve of the last Pull",
             ReadoutTab::Modes => "Natural frequencies and mode shapes about the equilibrium; animate any mode",
             ReadoutTab::Pluck => "The free vibration after a pulled node is let go: time history, frequency, energy",
+            ReadoutTab::Checks => "Every member checked in every load case: utilisation, status and the governing check; auto-size",
+            ReadoutTab::Sweep => "Vary one parameter over a range and plot an output",
         }
     }
 }
@@ -80,6 +88,8 @@ pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
         ReadoutTab::Pull => return pull(app, ui),
         ReadoutTab::Pluck => return super::pluck::pluck_ui(app, ui),
         ReadoutTab::Modes => return super::pluck::modes_ui(app, ui),
+        ReadoutTab::Checks => return super::sizing::checks_ui(app, ui),
+        ReadoutTab::Sweep => return super::sizing::sweep_ui(app, ui),
         _ => {}
     }
     let Some(answer) = app.answer() else {
@@ -96,7 +106,7 @@ pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
             ReadoutTab::Members => members(&answer, units, ui),
             ReadoutTab::Nodes => nodes(&answer, units, ui),
             ReadoutTab::Stiffness => stiffness(app, units, ui),
-            ReadoutTab::Pull | ReadoutTab::Modes | ReadoutTab::Pluck => {}
+            ReadoutTab::Pull | ReadoutTab::Modes | ReadoutTab::Pluck | ReadoutTab::Checks | ReadoutTab::Sweep => {}
         });
 }
 

@@ -28,17 +28,22 @@ pub enum Quantity {
     Stiffness,
     /// Mass per length: kg/m or lb/ft.
     MassPerLength,
+    /// Stress: MPa or ksi.
+    Stress,
 }
 
 const FT: f64 = 0.3048;
 const LBF: f64 = 4.448_221_615_260_5;
 const LB: f64 = 0.453_592_37;
 const INCH: f64 = 0.0254;
+const KSI: f64 = 1000.0 * LBF / (INCH * INCH);
 
 impl Quantity {
     /// Size of one display unit in SI.
     fn si_per_unit(self, units: Units) -> f64 {
         match (self, units) {
+            (Quantity::Stress, Units::Si) => 1e6,
+            (Quantity::Stress, Units::Us) => KSI,
             (_, Units::Si) => 1.0,
             (Quantity::Length, Units::Us) => FT,
             (Quantity::Force, Units::Us) => LBF,
@@ -61,6 +66,8 @@ impl Quantity {
             (Quantity::Stiffness, Units::Us) => "lbf/in",
             (Quantity::MassPerLength, Units::Si) => "kg/m",
             (Quantity::MassPerLength, Units::Us) => "lb/ft",
+            (Quantity::Stress, Units::Si) => "MPa",
+            (Quantity::Stress, Units::Us) => "ksi",
         }
     }
 }
@@ -124,6 +131,7 @@ mod tests {
             Quantity::Mass,
             Quantity::Stiffness,
             Quantity::MassPerLength,
+            Quantity::Stress,
         ] {
             let si = 123.456;
             let back = Units::Us.to_si(q, Units::Us.to_display(q, si));
@@ -135,6 +143,13 @@ mod tests {
     fn one_foot_is_0_3048_m_and_one_lbf_per_inch_is_175_n_per_m() {
         assert!((Units::Us.to_si(Quantity::Length, 1.0) - 0.3048).abs() < 1e-12);
         assert!((Units::Us.to_si(Quantity::Stiffness, 1.0) - 175.126_835_3).abs() < 1e-6);
+    }
+
+    /// NIST SP 811, Appendix B (from memory): 1 ksi = 6.894 757 MPa.
+    #[test]
+    fn one_ksi_is_6_894757_mpa() {
+        assert!((Units::Us.to_si(Quantity::Stress, 1.0) / 1e6 - 6.894_757).abs() < 1e-6);
+        assert_eq!(Units::Si.show(Quantity::Stress, 597.11e6), "597.1 MPa");
     }
 
     #[test]
