@@ -393,3 +393,22 @@ fn a_sweep_run_from_the_sweep_tab_plots_its_outputs() {
     assert!(h.query_by_label("peak-tension (N)").is_some());
     assert!(h.query_by_label("lowest-frequency (Hz)").is_some());
 }
+
+#[test]
+fn importing_a_parts_file_adds_its_parts_and_a_bad_one_changes_nothing() {
+    let mut h = harness();
+    let good = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../sample-projects/example-supplier.parts.ron");
+    rigwright::gui::sizing::import_parts(h.state_mut(), &good);
+    h.run();
+    let ids: Vec<String> = h.state().doc.project.sizing.parts.iter().map(|p| p.id.clone()).collect();
+    assert_eq!(ids, ["demo-dyneema-6", "demo-rod-m10"]);
+    let bad = std::env::temp_dir().join(format!("rigwright-bad-parts-{}.parts.ron", std::process::id()));
+    std::fs::write(&bad, "(version: 1, parts: [(id: \"x\", breaking_force: 0.0, ea: 1.0)])").unwrap();
+    let before = h.state().doc.project.clone();
+    rigwright::gui::sizing::import_parts(h.state_mut(), &bad);
+    h.run();
+    assert_eq!(h.state().doc.project, before);
+    let (msg, is_error) = h.state().message.clone().unwrap();
+    assert!(is_error && msg.contains("part `x`"), "{msg}");
+    std::fs::remove_file(bad).ok();
+}

@@ -332,3 +332,44 @@ fn assigning_a_part_sets_ea_and_weight() {
     assert!(rel(p.members[0].mass_per_length, 0.400) < 1e-12);
     assert!(assign_part(&mut p, "nope", part).unwrap_err().contains("nope"));
 }
+
+/// Shigley's *Mechanical Engineering Design* (9th ed.), Example 10-1, from memory: music wire
+/// d = 0.037 in, OD = 7/16 in, plain and ground ends, 12.5 total coils → Na = 11.5,
+/// k ≈ 3.76 lbf/in (with G = 11.85 Mpsi), Ls = d·Nt = 0.4625 in, Sut = 201/d^0.145 ≈ 324 kpsi.
+/// Our G for music wire is 81.0 GPa (11.75 Mpsi), so the rate is compared to 1.5 %.
+#[test]
+fn shigley_example_spring_from_memory() {
+    let inch = 25.4;
+    let d = 0.037 * inch;
+    let s = SpringDesign {
+        material: SpringMaterial::MusicWire,
+        wire_mm: d,
+        mean_mm: 0.4375 * inch - d,
+        active_coils: 11.5,
+        ends: SpringEnds::PlainGround,
+        free_length_mm: 0.0,
+    };
+    let p = s.properties();
+    let lbf_per_in = 4.448_221_615_260_5 / 0.0254;
+    assert!(rel(p.rate / lbf_per_in, 3.76) < 0.015, "k = {} lbf/in", p.rate / lbf_per_in);
+    assert!(rel(p.solid_length / 0.0254, 0.4625) < 1e-9);
+    assert!(rel(p.sut / 6.894_757e6, 324.0) < 0.005, "Sut = {} kpsi", p.sut / 6.894_757e6);
+}
+
+/// A catalogue file's parts can be used by the checks, and a project's own part with the
+/// same id wins over the file's (catalogue merge order: built-in, files, project).
+#[test]
+fn catalogue_file_parts_are_found_and_the_project_overrides_them() {
+    let file = Catalogue::load(&sample("example-supplier.parts.ron")).unwrap();
+    assert_eq!(file.parts().len(), 2);
+    let mut p = hanging(100.0);
+    p.members[0].design = design(|d| d.part = Some("demo-rod-m10".into()));
+    let merged = rigwright_core::sizing::check::project_catalogue(&p, &file);
+    let r = rigwright_core::sizing::check(&p, &model(&p), &merged, rigwright_core::sizing::solve_cases(&model(&p)));
+    assert_eq!(r.members[0].capacity.as_ref().unwrap().value, 35_000.0);
+    let mut own = file.find("demo-rod-m10").unwrap().clone();
+    own.breaking_force = 20_000.0;
+    p.sizing.parts.push(own);
+    let merged = rigwright_core::sizing::check::project_catalogue(&p, &file);
+    assert_eq!(merged.find("demo-rod-m10").unwrap().breaking_force, 20_000.0);
+}

@@ -118,6 +118,9 @@ pub enum Command {
         /// Extra catalogue file(s) (*.parts.ron).
         #[arg(long)]
         catalogue: Vec<PathBuf>,
+        /// Choose only among parts whose id contains this text, e.g. `6x19-IWRC` or `-1770`.
+        #[arg(long)]
+        only: Option<String>,
         /// Write the sized project here.
         #[arg(short, long)]
         output: Option<PathBuf>,
@@ -316,10 +319,11 @@ pub fn run(command: Command) -> Result<(), Failure> {
             file,
             member,
             catalogue,
+            only,
             output,
             json,
         } => {
-            let (text, ok) = sizing::autosize_command(&file, &member, &catalogue, output.as_deref(), json)?;
+            let (text, ok) = sizing::autosize_command(&file, &member, &catalogue, only.as_deref(), output.as_deref(), json)?;
             print_output(&text, json);
             checked(ok, "some cables cannot pass with the catalogue's parts")
         }

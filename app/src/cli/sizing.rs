@@ -167,11 +167,20 @@ pub fn autosize_command(
     path: &Path,
     members: &[String],
     catalogues: &[PathBuf],
+    only: Option<&str>,
     out: Option<&Path>,
     json: bool,
 ) -> Result<(String, bool), Failure> {
     let project = read_project(path)?;
-    let cat = catalogue(&project, catalogues)?;
+    let mut cat = catalogue(&project, catalogues)?;
+    if let Some(text) = only {
+        cat = Catalogue::of(cat.parts().iter().filter(|p| p.id.contains(text)).cloned().collect());
+        if cat.parts().is_empty() {
+            return Err(Failure::input(format!(
+                "no part id contains `{text}`; list them with `rigwright parts`"
+            )));
+        }
+    }
     let a: AutoSize = auto_size(&project, &cat, members, 20).map_err(|e| Failure::input(e.to_string()))?;
     if let Some(out) = out {
         std::fs::write(out, a.project.to_ron()).map_err(|e| Failure {

@@ -12,7 +12,7 @@ mod pluck;
 mod properties;
 mod readouts;
 pub mod samples;
-mod sizing;
+pub mod sizing;
 mod solver;
 pub mod units;
 mod view;

@@ -33,6 +33,8 @@ pub struct SizingState {
     pub sweep: SweepPanel,
     /// Filter text of the part chooser.
     part_filter: String,
+    /// Auto-size chooses only among part ids containing this text.
+    pub autosize_only: String,
 }
 
 /// The spring designer window.
@@ -258,6 +260,21 @@ fn settings_row(app: &mut RigApp, ui: &mut egui::Ui) {
             edit(app, "near-limit".into(), move |p| p.sizing.near_limit = near);
         }
         if ui
+            .button("Import parts…")
+            .on_hover_text("Copy the parts of a catalogue file (*.parts.ron) into this project")
+            .clicked()
+            && let Some(path) = rfd::FileDialog::new().add_filter("Rigwright parts", &["ron"]).pick_file()
+        {
+            import_parts(app, &path);
+        }
+        let name = ui.label("from parts matching").id;
+        ui.add(
+            egui::TextEdit::singleline(&mut app.sizing.autosize_only)
+                .hint_text("any, or e.g. 6x19-IWRC")
+                .desired_width(110.0),
+        )
+        .labelled_by(name);
+        if ui
             .button("Auto-size cables")
             .on_hover_text("Choose the lightest catalogue part for every cable that passes every load case, re-solving until the choice is stable")
             .clicked()
@@ -267,9 +284,39 @@ fn settings_row(app: &mut RigApp, ui: &mut egui::Ui) {
     });
 }
 
+/// Copies the parts of a catalogue file into the project (one undo step); a part with an id
+/// already in the project replaces it.
+pub fn import_parts(app: &mut RigApp, path: &std::path::Path) {
+    match Catalogue::load(path) {
+        Ok(c) => {
+            let parts = c.parts().to_vec();
+            let n = parts.len();
+            app.queue(Command::Edit {
+                merge: None,
+                apply: Box::new(move |p| {
+                    for part in parts {
+                        match p.sizing.parts.iter_mut().find(|q| q.id == part.id) {
+                            Some(q) => *q = part,
+                            None => p.sizing.parts.push(part),
+                        }
+                    }
+                }),
+            });
+            app.message = Some((format!("Imported {n} part(s) from {}", path.display()), false));
+        }
+        Err(e) => app.message = Some((format!("{}: {e}", path.display()), true)),
+    }
+}
+
 fn autosize(app: &mut RigApp) {
     let p = app.doc.project.clone();
-    match auto_size(&p, &catalogue(&p), &[], 20) {
+    let only = app.sizing.autosize_only.trim().to_string();
+    let parts = Catalogue::of(catalogue(&p).parts().iter().filter(|q| q.id.contains(&only)).cloned().collect());
+    if parts.parts().is_empty() {
+        app.message = Some((format!("Auto-size: no part id contains `{only}`"), true));
+        return;
+    }
+    match auto_size(&p, &parts, &[], 20) {
         Ok(a) => {
             let mut msg = format!(
                 "Auto-size: {} round(s), {}; {} cable(s) sized",
