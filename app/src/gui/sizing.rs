@@ -672,6 +672,16 @@ pub fn windows(app: &mut RigApp, ctx: &egui::Context) {
                                 units.show(Quantity::Stress, s.stress(d.req.max_force)),
                             ),
                             ("allowable (Sut × fraction)", units.show(Quantity::Stress, p.allowable)),
+                            (
+                                "utilisation (with the design factor)",
+                                format!("{:.3}", s.stress(d.req.max_force) * d.req.design_factor / p.allowable),
+                            ),
+                            (
+                                "buckling",
+                                p.buckling_free_length.map_or("n/a (extension spring)".to_string(), |l| {
+                                    format!("stable below {:.1} mm free length (flat parallel ends)", l * 1e3)
+                                }),
+                            ),
                             ("surge frequency", format!("{:.1} Hz", p.surge_hz)),
                             ("mass", units.show(Quantity::Mass, p.mass)),
                         ];
