@@ -71,3 +71,20 @@ fn every_sample_solves_every_case_to_a_stable_equilibrium() {
         }
     }
 }
+
+/// A file written by the released version 1 format (before design data) still opens, keeps
+/// every value, and is saved as the current version.
+#[test]
+fn a_version_1_file_still_opens_and_saves_as_the_current_version() {
+    let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("fixtures/version-1-sign.rig.ron");
+    let text = std::fs::read_to_string(&path).unwrap();
+    assert!(text.contains("version: 1,"));
+    let p = Project::from_ron(&text).unwrap();
+    p.validate().unwrap();
+    assert_eq!(p.version, rigwright_core::FORMAT_VERSION);
+    assert_eq!(p.members.len(), 2);
+    assert!(p.members.iter().all(|m| m.design.is_none()));
+    let saved = p.to_ron();
+    assert!(saved.contains(&format!("version: {},", rigwright_core::FORMAT_VERSION)));
+    assert_eq!(saved.replace("version: 2,", "version: 1,"), text, "nothing else changes");
+}
