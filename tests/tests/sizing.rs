@@ -28,7 +28,8 @@ fn design(f: impl FnOnce(&mut MemberDesign)) -> Option<MemberDesign> {
 }
 
 /// EN 12385-4 method (Feyrer, *Wire Ropes*, eq. 1.5, Table 1.9; shared REFERENCES §3):
-/// `F_min = d² R_r K / 1000`. Printed values in EN 12385-4-based makers' tables (from memory):
+/// `F_min = d² R_r K / 1000`. Makers' tables are computed by the same method, so this checks
+/// our factors, grades and units against printed values (from memory):
 /// 6×19 FC 12 mm grade 1770 → 84.1 kN; 6×36 IWRC 20 mm grade 1960 → 279 kN; 6×7 FC 10 mm grade
 /// 1770 → 58.8 kN (agrees with API Spec 9A Table C.1, shared REFERENCES §3).
 #[test]
@@ -109,7 +110,7 @@ fn strut_buckling_utilisation_follows_euler() {
             modulus: e,
             second_moment: i,
             length_factor: 1.0,
-            capacity: None,
+            capacity: Some(2.0e5),
         })
     });
     let r = check_project(&p, &Catalogue::default()).unwrap();
@@ -143,6 +144,8 @@ fn spring_checks_follow_the_design_formulas() {
         active_coils: 10.0,
         ends: SpringEnds::SquaredGround,
         free_length_mm: 60.0,
+        buckling_alpha: 1.0,
+        initial_tension: 0.0,
     };
     let props = s.properties();
     // Ls = d (Na + 2) = 24 mm; travel to solid 36 mm; k = 3955.1 N/m·1000 (REFERENCES §5).
@@ -333,29 +336,6 @@ fn assigning_a_part_sets_ea_and_weight() {
     assert!(assign_part(&mut p, "nope", part).unwrap_err().contains("nope"));
 }
 
-/// Shigley's *Mechanical Engineering Design* (9th ed.), Example 10-1, from memory: music wire
-/// d = 0.037 in, OD = 7/16 in, plain and ground ends, 12.5 total coils → Na = 11.5,
-/// k ≈ 3.76 lbf/in (with G = 11.85 Mpsi), Ls = d·Nt = 0.4625 in, Sut = 201/d^0.145 ≈ 324 kpsi.
-/// Our G for music wire is 81.0 GPa (11.75 Mpsi), so the rate is compared to 1.5 %.
-#[test]
-fn shigley_example_spring_from_memory() {
-    let inch = 25.4;
-    let d = 0.037 * inch;
-    let s = SpringDesign {
-        material: SpringMaterial::MusicWire,
-        wire_mm: d,
-        mean_mm: 0.4375 * inch - d,
-        active_coils: 11.5,
-        ends: SpringEnds::PlainGround,
-        free_length_mm: 0.0,
-    };
-    let p = s.properties();
-    let lbf_per_in = 4.448_221_615_260_5 / 0.0254;
-    assert!(rel(p.rate / lbf_per_in, 3.76) < 0.015, "k = {} lbf/in", p.rate / lbf_per_in);
-    assert!(rel(p.solid_length / 0.0254, 0.4625) < 1e-9);
-    assert!(rel(p.sut / 6.894_757e6, 324.0) < 0.005, "Sut = {} kpsi", p.sut / 6.894_757e6);
-}
-
 /// A catalogue file's parts can be used by the checks, and a project's own part with the
 /// same id wins over the file's (catalogue merge order: built-in, files, project).
 #[test]
@@ -372,4 +352,44 @@ fn catalogue_file_parts_are_found_and_the_project_overrides_them() {
     p.sizing.parts.push(own);
     let merged = rigwright_core::sizing::check::project_catalogue(&p, &file);
     assert_eq!(merged.find("demo-rod-m10").unwrap().breaking_force, 20_000.0);
+}
+
+/// A part id that is not in the catalogue fails the check (it must not pass a batch run
+/// unnoticed).
+#[test]
+fn a_missing_part_fails_the_check() {
+    let mut p = hanging(10.0);
+    p.members[0].design = design(|d| d.part = Some("no-such-rope".into()));
+    let r = check_project(&p, &Catalogue::builtin()).unwrap();
+    assert_eq!(r.members[0].status, Status::Fail);
+    assert!(!r.passes());
+    assert!(r.members[0].governing_line().unwrap().note.contains("no-such-rope"));
+}
+
+/// An extension spring pulls with its initial tension as soon as its coils open (Shigley
+/// eq. 10-38: F = Fi + k y). Assigned to a member drawn at the spring's free length with no
+/// load, the member carries exactly Fi.
+#[test]
+fn an_assigned_extension_spring_carries_its_initial_tension_at_its_free_length() {
+    let s = SpringDesign {
+        material: SpringMaterial::HardDrawn,
+        wire_mm: 2.0,
+        mean_mm: 16.0,
+        active_coils: 20.0,
+        ends: SpringEnds::Extension,
+        free_length_mm: 70.0,
+        buckling_alpha: 1.0,
+        initial_tension: 12.0,
+    };
+    let mut p = Project::new("extension spring");
+    p.gravity = (0.0, 0.0, 0.0);
+    p.nodes = vec![anchor("a", (0.0, 0.0, 0.0)), anchor("b", (0.07, 0.0, 0.0))];
+    p.members = vec![member("spring", "a", "b", spring(1.0, Rest::AsDrawn))];
+    rigwright_core::sizing::autosize::assign_spring(&mut p, "spring", &s).unwrap();
+    let eq = solve(&model(&p));
+    assert!(rel(eq.members[0].force, 12.0) < 1e-9, "{}", eq.members[0].force);
+    // Hooks are not checked, so the member is never reported as a plain pass.
+    let r = check_project(&p, &Catalogue::default()).unwrap();
+    assert_eq!(r.members[0].status, Status::NotChecked);
+    assert!(r.members[0].notes.iter().any(|n| n.contains("hook")));
 }

@@ -185,6 +185,9 @@ pub enum Command {
         /// Design factor on the allowable stress.
         #[arg(long, default_value_t = 1.2)]
         design_factor: f64,
+        /// End-condition constant of the buckling check: 1 pivoted ends, 0.5 flat parallel ends.
+        #[arg(long, default_value_t = 1.0)]
+        alpha: f64,
         /// Print one JSON document.
         #[arg(long)]
         json: bool,
@@ -351,6 +354,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
             min_id,
             max_free_length,
             design_factor,
+            alpha,
             json,
         } => {
             let req = rigwright_core::sizing::SpringRequirement {
@@ -362,6 +366,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
                 min_inside_mm: min_id,
                 max_free_length_mm: max_free_length,
                 design_factor,
+                buckling_alpha: alpha,
             };
             print_output(&sizing::spring_command(&req, json)?, json);
             Ok(())

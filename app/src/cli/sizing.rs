@@ -215,6 +215,10 @@ pub fn autosize_command(
     for (m, why) in &a.failures {
         let _ = writeln!(s, "  CANNOT PASS: {m}: {why}");
     }
+    let _ = writeln!(
+        s,
+        "Auto-size chooses for tension only; run `rigwright check` for slack and every other check."
+    );
     match out {
         Some(p) => {
             let _ = writeln!(s, "Sized project written to {}; run `rigwright check` on it.", p.display());
@@ -372,10 +376,30 @@ pub fn spring_command(req: &SpringRequirement, json: bool) -> Result<String, Fai
         s.stress(req.max_force) * req.design_factor / p.allowable,
         req.design_factor
     );
+    if s.ends.is_compression() {
+        let solid = p.rate * (s.free_length_mm * 1e-3 - p.solid_length);
+        let _ = writeln!(
+            out,
+            "  utilisation at solid   {:.3} ({} at solid; the designer sizes for this)",
+            s.stress(solid) * req.design_factor / p.allowable,
+            force(solid)
+        );
+    } else {
+        let _ = writeln!(
+            out,
+            "  initial tension        {} (set; hooks not checked)",
+            force(s.initial_tension)
+        );
+    }
     let _ = writeln!(out, "  mass                   {:.4} kg", p.mass);
     let _ = writeln!(out, "  surge frequency        {:.1} Hz", p.surge_hz);
     if let Some(l) = p.buckling_free_length {
-        let _ = writeln!(out, "  buckling-free up to    {:.1} mm free length (flat parallel ends)", l * 1e3);
+        let _ = writeln!(
+            out,
+            "  buckling-free up to    {:.1} mm free length (α = {})",
+            l * 1e3,
+            s.buckling_alpha
+        );
     }
     if let Some((lo, hi)) = p.initial_tension {
         let _ = writeln!(out, "  initial tension band   {} to {}", force(lo), force(hi));

@@ -346,12 +346,18 @@ pub fn member_design(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
     let design = m.design.clone().unwrap_or_default();
     ui.add_space(8.0);
     ui.label(RichText::new("Design").strong());
+    let member_id = m.id.clone();
     let set = move |app: &mut RigApp, key: &str, f: Box<dyn FnOnce(&mut MemberDesign)>| {
+        let id = member_id.clone();
         edit(app, format!("design-{key}-{i}"), move |p| {
-            let d = p.members[i].design.get_or_insert_with(MemberDesign::default);
+            // Found by id when the edit runs: the member may have gone since.
+            let Some(m) = p.members.iter_mut().find(|m| m.id == id) else {
+                return;
+            };
+            let d = m.design.get_or_insert_with(MemberDesign::default);
             f(d);
             if d.is_empty() {
-                p.members[i].design = None;
+                m.design = None;
             }
         });
     };
@@ -488,6 +494,7 @@ pub fn member_design(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
                         min_inside_mm: None,
                         max_free_length_mm: None,
                         design_factor: app.doc.project.sizing.design_factors.spring,
+                        buckling_alpha: design.spring.map_or(1.0, |s| s.buckling_alpha),
                     },
                 });
             }
@@ -514,7 +521,15 @@ pub fn member_design(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
                     let name = ui.label("Young's modulus E").id;
                     if ui.add(DragValue::new(&mut e).speed(100.0)).labelled_by(name).changed() && e > 0.0 {
                         let si = units.to_si(Quantity::Stress, e);
-                        set(app, "E", Box::new(move |d| d.section.as_mut().expect("shown").modulus = si));
+                        set(
+                            app,
+                            "E",
+                            Box::new(move |d| {
+                                if let Some(sec) = d.section.as_mut() {
+                                    sec.modulus = si;
+                                }
+                            }),
+                        );
                     }
                     ui.label(units.symbol(Quantity::Stress));
                     ui.end_row();
@@ -524,7 +539,11 @@ pub fn member_design(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
                         set(
                             app,
                             "I",
-                            Box::new(move |d| d.section.as_mut().expect("shown").second_moment = i4 * 1e-8),
+                            Box::new(move |d| {
+                                if let Some(sec) = d.section.as_mut() {
+                                    sec.second_moment = i4 * 1e-8;
+                                }
+                            }),
                         );
                     }
                     ui.label("cm⁴");
@@ -536,7 +555,15 @@ pub fn member_design(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
                         .labelled_by(name)
                         .changed()
                     {
-                        set(app, "K", Box::new(move |d| d.section.as_mut().expect("shown").length_factor = k));
+                        set(
+                            app,
+                            "K",
+                            Box::new(move |d| {
+                                if let Some(sec) = d.section.as_mut() {
+                                    sec.length_factor = k;
+                                }
+                            }),
+                        );
                     }
                     ui.label("(1 pinned–pinned)");
                     ui.end_row();
@@ -673,8 +700,17 @@ pub fn windows(app: &mut RigApp, ctx: &egui::Context) {
                             ),
                             ("allowable (Sut × fraction)", units.show(Quantity::Stress, p.allowable)),
                             (
-                                "utilisation (with the design factor)",
+                                "utilisation at the working force (with the DF)",
                                 format!("{:.3}", s.stress(d.req.max_force) * d.req.design_factor / p.allowable),
+                            ),
+                            (
+                                "utilisation at solid (with the DF)",
+                                if s.ends.is_compression() {
+                                    let solid = p.rate * (s.free_length_mm * 1e-3 - p.solid_length);
+                                    format!("{:.3}", s.stress(solid) * d.req.design_factor / p.allowable)
+                                } else {
+                                    "n/a (extension spring)".to_string()
+                                },
                             ),
                             (
                                 "buckling",
@@ -834,11 +870,21 @@ fn sweep_result(app: &mut RigApp, ui: &mut egui::Ui) {
         })
         .y_axis_min_width(56.0)
         .show(ui, |plot| {
-            plot.line(
-                Line::new(name.clone(), PlotPoints::from(pts.clone()))
-                    .color(pal::STIFFNESS)
-                    .width(2.0),
-            );
+            // One line per run of values with results: no line is drawn across a gap.
+            let mut run: Vec<[f64; 2]> = Vec::new();
+            for (v, row) in r.values.iter().zip(&r.rows) {
+                match row.get(k).copied().flatten() {
+                    Some(y) => run.push([*v, y]),
+                    None if !run.is_empty() => {
+                        let pts = PlotPoints::from(std::mem::take(&mut run));
+                        plot.line(Line::new(name.clone(), pts).color(pal::STIFFNESS).width(2.0));
+                    }
+                    None => {}
+                }
+            }
+            if !run.is_empty() {
+                plot.line(Line::new(name.clone(), PlotPoints::from(run)).color(pal::STIFFNESS).width(2.0));
+            }
             plot.points(Points::new("values", PlotPoints::from(pts)).radius(3.0).color(pal::STIFFNESS));
         });
 }

@@ -290,6 +290,8 @@ impl Model {
             ));
         }
 
+        problems.extend(crate::sizing::design::design_problems(p));
+
         let mut cases = Vec::new();
         if p.cases.is_empty() {
             cases.push(LoadCase {

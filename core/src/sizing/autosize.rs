@@ -27,7 +27,8 @@ pub fn assign_part(project: &mut Project, member: &str, part: &Part) -> Result<(
     Ok(())
 }
 
-/// Makes spring `member` the designed spring: its rate and free length.
+/// Makes spring `member` the designed spring: its rate and free length (less Fi/k for an
+/// extension spring's initial tension).
 pub fn assign_spring(project: &mut Project, member: &str, spring: &SpringDesign) -> Result<(), String> {
     let doc = project
         .members
@@ -37,8 +38,11 @@ pub fn assign_spring(project: &mut Project, member: &str, spring: &SpringDesign)
     let MemberDocKind::Spring { rate, rest } = &mut doc.kind else {
         return Err(format!("member `{member}` is not a spring"));
     };
-    *rate = spring.properties().rate;
-    *rest = Rest::Length(spring.free_length_mm * 1e-3);
+    let k = spring.properties().rate;
+    *rate = k;
+    // An extension spring pulls with its initial tension Fi as soon as its coils open, so the
+    // linear member law F = k (L − L0) takes L0 = L0,spring − Fi/k.
+    *rest = Rest::Length(spring.free_length_mm * 1e-3 - spring.initial_tension / k);
     doc.design.get_or_insert_with(MemberDesign::default).spring = Some(*spring);
     Ok(())
 }

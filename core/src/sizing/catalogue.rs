@@ -34,8 +34,7 @@ pub struct Part {
     pub breaking_force: f64,
     /// Axial stiffness EA (N).
     pub ea: f64,
-    /// Mass per length (kg/m).
-    #[serde(default)]
+    /// Mass per length (kg/m); 0 only for parts whose weight may be neglected.
     pub mass_per_length: f64,
     /// Where the numbers come from (a standard, a supplier's data sheet).
     #[serde(default)]
@@ -165,7 +164,7 @@ impl Catalogue {
             line: e.span.start.line,
             column: e.span.start.col,
             message: e.code.to_string(),
-            hint: "a catalogue file is `(version: 1, parts: [(id: \"..\", breaking_force: .., ea: .., mass_per_length: ..)])`".into(),
+            hint: "a catalogue file is `(version: 1, parts: [(id: \"..\", breaking_force: N, ea: N, mass_per_length: kg/m)])`".into(),
         })?;
         if file.version > CATALOGUE_VERSION || file.version == 0 {
             return Err(ProjectError::Invalid {
@@ -230,7 +229,7 @@ mod tests {
 
     #[test]
     fn a_bad_entry_is_named() {
-        let text = "(version: 1, parts: [(id: \"rod-8\", breaking_force: -1.0, ea: 1e6)])";
+        let text = "(version: 1, parts: [(id: \"rod-8\", breaking_force: -1.0, ea: 1e6, mass_per_length: 0.4)])";
         let e = Catalogue::from_ron(text).unwrap_err().to_string();
         assert!(e.contains("rod-8") && e.contains("breaking force"), "{e}");
     }

@@ -190,12 +190,9 @@ pub fn check(project: &Project, model: &Model, catalogue: &Catalogue, cases: Vec
         .iter()
         .enumerate()
         .map(|(i, member)| {
-            let design = project
-                .members
-                .iter()
-                .find(|d| d.id == member.id)
-                .and_then(|d| d.design.as_ref())
-                .unwrap_or(&empty);
+            let doc = project.members.iter().find(|d| d.id == member.id);
+            let design = doc.and_then(|d| d.design.as_ref()).unwrap_or(&empty);
+            let mass_per_length = doc.map_or(0.0, |d| d.mass_per_length);
             let class = member.kind.class();
             let df = design.design_factor.unwrap_or(sizing.design_factors.of(class));
             let forces: Vec<(f64, f64, &str)> = cases
@@ -222,11 +219,16 @@ pub fn check(project: &Project, model: &Model, catalogue: &Catalogue, cases: Vec
                 notes: Vec::new(),
             };
             match member.kind {
-                MemberKind::Cable { ea, .. } => check_cable(&mut m, design, ea, sizing, catalogue, &forces),
+                MemberKind::Cable { ea, .. } => check_cable(&mut m, design, (ea, mass_per_length), sizing, catalogue, &forces),
                 MemberKind::Spring { k, l0 } => check_spring(&mut m, design, k, l0, &forces),
                 MemberKind::Strut { .. } => check_strut(&mut m, design, &forces),
             }
-            settle(&mut m, sizing.near_limit);
+            let unsolved: Vec<&str> = cases.iter().filter(|c| c.error.is_some()).map(|c| c.name.as_str()).collect();
+            if !unsolved.is_empty() {
+                m.notes
+                    .push(format!("not checked in {} (no valid equilibrium)", unsolved.join(", ")));
+            }
+            settle(&mut m, sizing.near_limit, unsolved.is_empty());
             m
         })
         .collect();
@@ -279,7 +281,7 @@ fn worst<'a>(forces: &[(f64, f64, &'a str)], f: impl Fn(&(f64, f64, &str)) -> f6
 fn check_cable(
     m: &mut MemberCheck,
     design: &MemberDesign,
-    ea: f64,
+    (ea, mass_per_length): (f64, f64),
     sizing: &super::design::SizingDoc,
     catalogue: &Catalogue,
     forces: &[(f64, f64, &str)],
@@ -300,11 +302,25 @@ fn check_cable(
                         part.ea
                     ));
                 }
+                if (part.mass_per_length - mass_per_length).abs() > 1e-6 * part.mass_per_length.max(1e-9) {
+                    m.notes.push(format!(
+                        "mass per length {mass_per_length} kg/m differs from the part's {} kg/m; assign the part again",
+                        part.mass_per_length
+                    ));
+                }
                 Some(part.breaking_force)
             }
             None => {
-                m.notes.push(format!(
-                    "catalogue entry `{id}` is not in the catalogue; add it to the project's parts or choose another"
+                m.lines.push(flag_line(
+                    "part",
+                    "",
+                    0.0,
+                    0.0,
+                    "N",
+                    false,
+                    format!(
+                        "catalogue entry `{id}` is not in the catalogue; add it to the project's parts, load its catalogue file, or choose another"
+                    ),
                 ));
                 None
             }
@@ -332,7 +348,7 @@ fn check_cable(
                 format!("T·DF/(F_min·e) with DF {} and e {}", m.design_factor, eff),
             ));
         }
-    } else if m.notes.is_empty() {
+    } else if design.part.is_none() {
         m.notes
             .push("no catalogue entry or breaking force: choose a part or give the breaking force".into());
     }
@@ -390,7 +406,32 @@ fn check_spring(m: &mut MemberCheck, design: &MemberDesign, k: f64, l0: f64, for
             ),
         ));
     }
+    let (smallest, largest) = s.material.size_range();
+    if !(smallest..=largest).contains(&s.wire_mm) {
+        m.lines.push(flag_line(
+            "wire size",
+            "",
+            s.wire_mm * 1e-3,
+            largest * 1e-3,
+            "m",
+            false,
+            format!(
+                "{} mm is outside {smallest}–{largest} mm, where Sut = A/d^m holds (Shigley Table 10-4)",
+                s.wire_mm
+            ),
+        ));
+    }
     if s.ends.is_compression() {
+        // Solid-safe (Shigley §10-8): the stress with the coils closed, F = k (L0 − Ls).
+        let solid_force = p.rate * (s.free_length_mm * 1e-3 - p.solid_length).max(0.0);
+        m.lines.push(ratio_line(
+            "solid-safe",
+            "",
+            s.stress(solid_force),
+            p.allowable / m.design_factor,
+            "Pa",
+            format!("τ at solid (F = k(L0 − Ls) = {solid_force:.1} N) against the allowable ÷ DF"),
+        ));
         if let Some((f, _, case)) = worst(forces, |f| f.0)
             && f > 0.0
         {
@@ -424,21 +465,25 @@ fn check_spring(m: &mut MemberCheck, design: &MemberDesign, k: f64, l0: f64, for
                 s.free_length_mm * 1e-3,
                 limit,
                 "m",
-                "free length against 2.63 D/α, flat parallel ends (Shigley eq. 10-13)".into(),
+                format!("free length against 2.63 D/α with α = {} (Shigley eq. 10-13)", s.buckling_alpha),
             ));
         }
-    } else if let Some((f, _, case)) = worst(forces, |f| -f.0)
-        && f < 0.0
-    {
-        m.lines.push(flag_line(
-            "direction",
-            case,
-            f,
-            0.0,
-            "N",
-            false,
-            "an extension spring is pushed: use a compression spring or change the geometry".into(),
-        ));
+    } else {
+        if let Some((f, _, case)) = worst(forces, |f| -f.0)
+            && f < s.initial_tension * (1.0 - UTILISATION_TOLERANCE) - UTILISATION_TOLERANCE
+        {
+            m.lines.push(flag_line(
+                "direction",
+                case,
+                f,
+                s.initial_tension,
+                "N",
+                false,
+                "an extension spring below its initial tension has closed coils: use a compression spring or change the geometry".into(),
+            ));
+        }
+        m.notes
+            .push("hook stresses are not checked (Shigley eqs. 10-34, 10-35): check the hooks with the maker's data".into());
     }
 }
 
@@ -471,6 +516,10 @@ fn check_strut(m: &mut MemberCheck, design: &MemberDesign, forces: &[(f64, f64, 
             format!("π²EI/(KL)² at L = {length:.4} m"),
         ));
     }
+    if sec.capacity.is_none() {
+        m.notes
+            .push("no axial capacity given: yield and squash are not checked, only buckling; give the capacity".into());
+    }
     if let Some(cap) = sec.capacity
         && let Some((f, _, case)) = worst(forces, |f| f.0.abs())
     {
@@ -492,8 +541,9 @@ fn check_strut(m: &mut MemberCheck, design: &MemberDesign, forces: &[(f64, f64, 
     }
 }
 
-/// Sets the member's status, utilisation and governing line from its lines.
-fn settle(m: &mut MemberCheck, near: f64) {
+/// Sets the member's status, utilisation and governing line from its lines; `all_cases`
+/// is false when some case has no equilibrium (then nothing better than "not checked").
+fn settle(m: &mut MemberCheck, near: f64, all_cases: bool) {
     m.utilisation = m.lines.iter().filter_map(|l| l.utilisation).reduce(f64::max);
     m.governing = m
         .lines
@@ -509,12 +559,20 @@ fn settle(m: &mut MemberCheck, near: f64) {
         Status::NotChecked
     } else if m.lines.iter().any(|l| l.status == Status::Fail) {
         Status::Fail
-    } else if m.capacity.is_none() {
-        // Only the slack or direction check ran: the strength is unknown.
+    } else if m.capacity.is_none() || !all_cases || incomplete(m) {
+        // The strength is unknown, a case is missing, or a check the member needs is absent.
         Status::NotChecked
     } else if m.utilisation.is_some_and(|u| u > near) {
         Status::Near
     } else {
         Status::Pass
     };
+}
+
+/// True when a member passes its lines but misses a check it needs: a strut without a
+/// capacity, an extension spring (hooks unchecked).
+fn incomplete(m: &MemberCheck) -> bool {
+    m.notes
+        .iter()
+        .any(|n| n.starts_with("no axial capacity") || n.starts_with("hook stresses"))
 }

@@ -51,35 +51,66 @@ impl SpringMaterial {
         }
     }
 
-    /// (m, A in MPa·mm^m) of `Sut = A/d^m` (Shigley Table 10-4).
-    pub fn strength_constants(self) -> (f64, f64) {
+    /// (m, A in MPa·mm^m) of `Sut = A/d^m` for wire `d` (mm) (Shigley Table 10-4; the
+    /// 302 stainless bands above 2.5 mm from memory).
+    pub fn strength_constants(self, d: f64) -> (f64, f64) {
         match self {
             SpringMaterial::MusicWire => (0.145, 2211.0),
             SpringMaterial::OilTempered => (0.187, 1855.0),
             SpringMaterial::HardDrawn => (0.190, 1783.0),
             SpringMaterial::ChromeVanadium => (0.168, 2005.0),
             SpringMaterial::ChromeSilicon => (0.108, 1974.0),
-            SpringMaterial::Stainless302 => (0.146, 1867.0),
+            SpringMaterial::Stainless302 if d <= 2.5 => (0.146, 1867.0),
+            SpringMaterial::Stainless302 if d <= 5.0 => (0.263, 2065.0),
+            SpringMaterial::Stainless302 => (0.478, 2911.0),
+        }
+    }
+
+    /// Wire sizes (mm) for which Table 10-4's constants hold (Shigley Table 10-4, from memory).
+    pub fn size_range(self) -> (f64, f64) {
+        match self {
+            SpringMaterial::MusicWire => (0.10, 6.5),
+            SpringMaterial::OilTempered => (0.5, 12.7),
+            SpringMaterial::HardDrawn => (0.7, 12.7),
+            SpringMaterial::ChromeVanadium => (0.8, 11.1),
+            SpringMaterial::ChromeSilicon => (1.6, 9.5),
+            SpringMaterial::Stainless302 => (0.3, 10.0),
         }
     }
 
     /// Allowable static shear at solid as a fraction of Sut, before set removal (Shigley
-    /// Table 10-6): music wire 45 %, hardened carbon and low-alloy steels 50 %, austenitic
-    /// stainless 35 %.
+    /// Table 10-6): cold-drawn carbon steel (music wire, hard-drawn) 45 %, hardened and
+    /// tempered carbon and low-alloy steels 50 %, austenitic stainless 35 %.
     pub fn allowable_fraction(self) -> f64 {
         match self {
-            SpringMaterial::MusicWire => 0.45,
+            SpringMaterial::MusicWire | SpringMaterial::HardDrawn => 0.45,
             SpringMaterial::Stainless302 => 0.35,
             _ => 0.50,
         }
     }
 
-    /// Shear modulus G (Pa): 81.0 GPa for the steels (music wire 79.3–81.7 by diameter),
-    /// 69.0 GPa for 302 stainless (Shigley Table 10-5).
-    pub fn shear_modulus(self) -> f64 {
-        match self {
-            SpringMaterial::Stainless302 => 69.0e9,
-            _ => 81.0e9,
+    /// Shear modulus G (Pa) for wire `d` (mm), Shigley Table 10-5 (from memory beyond the
+    /// shared references' 79.3–81.7 GPa for music wire and 69.0 GPa for 302 stainless): music
+    /// wire 82.7 / 81.7 / 81.0 / 80.0 GPa below 0.8, 1.6, 3 mm and above; hard-drawn 80.0 /
+    /// 79.3 / 78.6 / 77.9 GPa in the same bands; oil-tempered, chrome-vanadium and
+    /// chrome-silicon 77.2 GPa; 302 stainless 69.0 GPa.
+    pub fn shear_modulus(self, d: f64) -> f64 {
+        let band = |g: [f64; 4]| {
+            if d < 0.8 {
+                g[0]
+            } else if d <= 1.6 {
+                g[1]
+            } else if d <= 3.0 {
+                g[2]
+            } else {
+                g[3]
+            }
+        };
+        1e9 * match self {
+            SpringMaterial::MusicWire => band([82.7, 81.7, 81.0, 80.0]),
+            SpringMaterial::HardDrawn => band([80.0, 79.3, 78.6, 77.9]),
+            SpringMaterial::OilTempered | SpringMaterial::ChromeVanadium | SpringMaterial::ChromeSilicon => 77.2,
+            SpringMaterial::Stainless302 => 69.0,
         }
     }
 }
@@ -106,12 +137,12 @@ pub struct SpringReport {
 /// Rate and stress of a spring of wire `d` (mm), mean coil diameter `dm` (mm), `na` active
 /// coils, carrying force `f` (N).
 pub fn helical_spring(material: SpringMaterial, d: f64, dm: f64, na: f64, f: f64) -> SpringReport {
-    let g = material.shear_modulus();
+    let g = material.shear_modulus(d);
     let c = dm / d;
     let rate = (d * 1e-3).powi(4) * g / (8.0 * (dm * 1e-3).powi(3) * na);
     let kb = (4.0 * c + 2.0) / (4.0 * c - 3.0);
     let stress = kb * 8.0 * f * dm * 1e-3 / (std::f64::consts::PI * (d * 1e-3).powi(3));
-    let (m, a) = material.strength_constants();
+    let (m, a) = material.strength_constants(d);
     let sut = a / d.powf(m) * 1e6;
     let allowable = material.allowable_fraction() * sut;
     SpringReport {
@@ -136,8 +167,6 @@ const STEEL_DENSITY: f64 = 7850.0;
 /// Fractional overrun to closure ξ: the solid length sits (1 + ξ) × working deflection
 /// below the free length (Shigley §10-8 recommends ξ ≥ 0.15).
 pub const OVERRUN: f64 = 0.15;
-/// End-condition constant α for flat parallel ends (Shigley Table 10-2).
-const ALPHA_FLAT_ENDS: f64 = 0.5;
 
 /// Everything about a designed spring that does not depend on the load.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
@@ -160,8 +189,8 @@ pub struct SpringProperties {
     pub mass: f64,
     /// First surge frequency with both ends against flat plates (Hz), Shigley eq. 10-25.
     pub surge_hz: f64,
-    /// Longest free length that does not buckle with flat parallel ends, `2.63 D / α`
-    /// (Shigley eq. 10-13, α = 0.5), compression springs (m).
+    /// Longest free length that does not buckle, `2.63 D / α` (Shigley eq. 10-13, α of the
+    /// design), compression springs (m).
     pub buckling_free_length: Option<f64>,
     /// Preferred initial-tension band of an extension spring (N), Shigley eq. 10-41.
     pub initial_tension: Option<(f64, f64)>,
@@ -197,7 +226,7 @@ impl SpringDesign {
             outside_diameter: (dm + d) * 1e-3,
             mass,
             surge_hz: 0.5 * (r.rate / active_mass).sqrt(),
-            buckling_free_length: self.ends.is_compression().then_some(2.63 * dm * 1e-3 / ALPHA_FLAT_ENDS),
+            buckling_free_length: self.ends.is_compression().then_some(2.63 * dm * 1e-3 / self.buckling_alpha),
             initial_tension,
         }
     }
@@ -225,12 +254,15 @@ pub struct SpringRequirement {
     pub max_free_length_mm: Option<f64>,
     /// Factor on the allowable stress.
     pub design_factor: f64,
+    /// End-condition constant of the buckling check (1: both ends pivoted).
+    pub buckling_alpha: f64,
 }
 
 /// Proposes the lightest spring from [`WIRE_DIAMETERS_MM`] that gives the rate (to a quarter
 /// coil) and keeps to Shigley's §10-8 recommendations: 4 ≤ C ≤ 12, 3 ≤ Na ≤ 15, solid-safe with
 /// ξ = 0.15 and the design factor (compression springs; extension springs at the working
-/// force), and no buckling with flat parallel ends. Says which limit stops it when none fits.
+/// force, with the middle of the preferred initial-tension band and two machine hooks), and no
+/// buckling with the requirement's α. Says which limit stops it when none fits.
 pub fn design_spring(req: &SpringRequirement) -> Result<SpringDesign, String> {
     if !(req.rate.is_finite() && req.rate > 0.0 && req.max_force.is_finite() && req.max_force > 0.0) {
         return Err("give a positive rate and working force".into());
@@ -240,7 +272,8 @@ pub fn design_spring(req: &SpringRequirement) -> Result<SpringDesign, String> {
     let max_coils = if req.ends.is_compression() { 15.0 } else { 40.0 };
     let mut best: Option<(f64, SpringDesign)> = None;
     let mut limits = [0usize; 4]; // space, coils, stress, length/buckling
-    for d in WIRE_DIAMETERS_MM {
+    let (smallest, largest) = req.material.size_range();
+    for d in WIRE_DIAMETERS_MM.into_iter().filter(|d| (smallest..=largest).contains(d)) {
         let mut c = 12.0;
         while c >= 4.0 - 1e-9 {
             let dm = c * d;
@@ -249,7 +282,7 @@ pub fn design_spring(req: &SpringRequirement) -> Result<SpringDesign, String> {
                 limits[0] += 1;
                 continue;
             }
-            let g = req.material.shear_modulus();
+            let g = req.material.shear_modulus(d);
             let exact = (d * 1e-3).powi(4) * g / (8.0 * (dm * 1e-3).powi(3) * req.rate);
             let na = (exact * 4.0).round() / 4.0;
             if !(3.0..=max_coils).contains(&na) {
@@ -263,6 +296,8 @@ pub fn design_spring(req: &SpringRequirement) -> Result<SpringDesign, String> {
                 active_coils: na,
                 ends: req.ends,
                 free_length_mm: 0.0,
+                buckling_alpha: req.buckling_alpha,
+                initial_tension: 0.0,
             };
             let p = design.properties();
             let working = req.max_force / p.rate * 1e3; // mm
@@ -270,7 +305,10 @@ pub fn design_spring(req: &SpringRequirement) -> Result<SpringDesign, String> {
                 let to_solid = (1.0 + OVERRUN) * working;
                 (p.rate * to_solid * 1e-3, p.solid_length * 1e3 + to_solid)
             } else {
-                (req.max_force, p.solid_length * 1e3)
+                // Shigley eq. 10-39: L0 = 2(D − d) + Lb with two machine hooks.
+                let (lo, hi) = p.initial_tension.unwrap_or((0.0, 0.0));
+                design.initial_tension = (0.5 * (lo + hi)).clamp(0.0, 0.5 * req.max_force);
+                (req.max_force, p.solid_length * 1e3 + 2.0 * (dm - d))
             };
             if design.stress(check_force) * req.design_factor > p.allowable {
                 limits[2] += 1;
@@ -296,9 +334,10 @@ pub fn design_spring(req: &SpringRequirement) -> Result<SpringDesign, String> {
         ];
         let worst = (0..4).max_by_key(|i| limits[*i]).unwrap_or(0);
         format!(
-            "no wire from {} to {} mm fits; most sizes fail {}: allow more space, a lower rate or force, or a stronger material",
-            WIRE_DIAMETERS_MM[0],
-            WIRE_DIAMETERS_MM[WIRE_DIAMETERS_MM.len() - 1],
+            "no {} wire from {} to {} mm fits; most sizes fail {}: allow more space, a lower rate or force, or a stronger material",
+            req.material.name(),
+            smallest,
+            largest,
             names[worst]
         )
     })
@@ -345,6 +384,7 @@ mod tests {
             min_inside_mm: None,
             max_free_length_mm: Some(150.0),
             design_factor: 1.2,
+            buckling_alpha: 0.5,
         };
         let s = design_spring(&req).unwrap();
         let p = s.properties();
@@ -371,6 +411,7 @@ mod tests {
             min_inside_mm: None,
             max_free_length_mm: None,
             design_factor: 1.2,
+            buckling_alpha: 1.0,
         };
         let e = design_spring(&req).unwrap_err();
         assert!(e.contains("no wire"), "{e}");
@@ -389,6 +430,8 @@ mod tests {
             active_coils: 10.0,
             ends: SpringEnds::SquaredGround,
             free_length_mm: 60.0,
+            buckling_alpha: 1.0,
+            initial_tension: 0.0,
         };
         let p = s.properties();
         assert!((p.surge_hz - 282.43).abs() < 0.02, "f = {}", p.surge_hz);

@@ -282,6 +282,9 @@ pub struct SweepResult {
     pub notes: Vec<Option<String>>,
 }
 
+/// Most values one Sweep takes.
+pub const MAX_STEPS: usize = 10_000;
+
 /// Solves `case` (the first case when `None`) at `steps` evenly spaced values of `param` from
 /// `from` to `to` and evaluates `outputs` at each.
 pub fn sweep(
@@ -307,8 +310,8 @@ pub fn sweep(
     let invalid = |problem: String| ProjectError::Invalid {
         problems: vec![crate::model::Problem::new("sweep", problem, "check the parameter and range")],
     };
-    if !(from.is_finite() && to.is_finite()) || steps < 2 {
-        return Err(invalid("the range needs finite ends and at least 2 steps".into()));
+    if !(from.is_finite() && to.is_finite() && (2..=MAX_STEPS).contains(&steps)) {
+        return Err(invalid(format!("the range needs finite ends and 2 to {MAX_STEPS} steps")));
     }
     param.apply(&mut project.clone(), from).map_err(invalid)?;
     let mut result = SweepResult {
@@ -362,7 +365,22 @@ pub fn sweep(
                         equilibrium: Some(eq.clone()),
                         error: None,
                     };
-                    check(&p, &model, catalogue, vec![outcome])
+                    let report = check(&p, &model, catalogue, vec![outcome]);
+                    let unmeasured = report
+                        .members
+                        .iter()
+                        .filter(|m| {
+                            m.lines
+                                .iter()
+                                .any(|l| l.status == super::check::Status::Fail && l.utilisation.is_none())
+                        })
+                        .count();
+                    if unmeasured > 0 {
+                        note.get_or_insert(format!(
+                            "{unmeasured} member(s) fail a check that has no utilisation (slack, direction or a missing part)"
+                        ));
+                    }
+                    report
                         .peak_utilisation()
                         .ok_or_else(|| "no member has a capacity to check against".to_string())
                 }
