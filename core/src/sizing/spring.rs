@@ -414,7 +414,7 @@ mod tests {
             buckling_alpha: 1.0,
         };
         let e = design_spring(&req).unwrap_err();
-        assert!(e.contains("no wire"), "{e}");
+        assert!(e.contains("no music wire A228 wire"), "{e}");
     }
 
     /// Surge frequency, Shigley eqs. 10-25 and 10-26, by hand for the reference spring (music
