@@ -403,7 +403,11 @@ fn importing_a_parts_file_adds_its_parts_and_a_bad_one_changes_nothing() {
     let ids: Vec<String> = h.state().doc.project.sizing.parts.iter().map(|p| p.id.clone()).collect();
     assert_eq!(ids, ["demo-dyneema-6", "demo-rod-m10"]);
     let bad = std::env::temp_dir().join(format!("rigwright-bad-parts-{}.parts.ron", std::process::id()));
-    std::fs::write(&bad, "(version: 1, parts: [(id: \"x\", breaking_force: 0.0, ea: 1.0, mass_per_length: 0.1)])").unwrap();
+    std::fs::write(
+        &bad,
+        "(version: 1, parts: [(id: \"x\", breaking_force: 0.0, ea: 1.0, mass_per_length: 0.1)])",
+    )
+    .unwrap();
     let before = h.state().doc.project.clone();
     rigwright::gui::sizing::import_parts(h.state_mut(), &bad);
     h.run();

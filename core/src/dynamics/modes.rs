@@ -109,13 +109,14 @@ pub fn modes(statics: &Statics, eq: &Equilibrium, count: usize) -> Result<Modes,
     } else {
         lanczos_pairs(&apply, massive.len(), count)?
     };
+    let pairs: Vec<(f64, Vec<f64>)> = pairs.into_iter().filter(|(mu, _)| *mu > 0.0).collect();
+    let shapes = shapes_from(&factor, &massive, &sqrt_m, n, &pairs);
     let out = pairs
         .into_iter()
-        .filter(|(mu, _)| *mu > 0.0)
-        .map(|(mu, y)| {
+        .zip(shapes)
+        .map(|((mu, _), phi)| {
             let omega2 = 1.0 / mu;
             let omega = omega2.sqrt();
-            let phi = shape_from(&factor, &massive, &sqrt_m, n, &y, omega2);
             let mut shape = vec![Vec3::zeros(); model.nodes.len()];
             let mut participation = [0.0; 3];
             for (node, a, i) in sys.dofs.free() {
@@ -143,15 +144,24 @@ pub fn modes(statics: &Statics, eq: &Equilibrium, count: usize) -> Result<Modes,
     Ok(Modes { modes: out, mobile_mass })
 }
 
-/// `φ = ω² K⁻¹ M^½ y` on all free DOFs.
-fn shape_from(factor: &Factor, massive: &[usize], sqrt_m: &[f64], n: usize, y: &[f64], omega2: f64) -> Vec<f64> {
-    let mut full = vec![0.0; n];
-    for (j, &i) in massive.iter().enumerate() {
-        full[i] = sqrt_m[i] * y[j];
+/// `φ = ω² K⁻¹ M^½ y` on all free DOFs for every pair `(1/ω², y)`, in one multi-column solve.
+fn shapes_from(factor: &Factor, massive: &[usize], sqrt_m: &[f64], n: usize, pairs: &[(f64, Vec<f64>)]) -> Vec<Vec<f64>> {
+    let c = pairs.len();
+    if c == 0 {
+        return Vec::new();
     }
-    factor.solve_in_place(&mut full);
-    full.iter_mut().for_each(|v| *v *= omega2);
-    full
+    let mut full = vec![0.0; n * c];
+    for (col, (_, y)) in pairs.iter().enumerate() {
+        for (j, &i) in massive.iter().enumerate() {
+            full[col * n + i] = sqrt_m[i] * y[j];
+        }
+    }
+    factor.solve_columns_in_place(&mut full, c);
+    pairs
+        .iter()
+        .enumerate()
+        .map(|(col, (mu, _))| full[col * n..(col + 1) * n].iter().map(|v| v / mu).collect())
+        .collect()
 }
 
 /// All eigenpairs of the dense `B`, largest first, keeping `count`.
