@@ -438,11 +438,8 @@ impl RigApp {
     }
 
     fn save_to(&mut self, path: PathBuf) {
-        let text = self.doc.project.to_ron();
-        // Write to a sibling temporary file, then rename: a failed save never leaves half a file.
-        let tmp = path.with_extension("ron.tmp");
-        let result = std::fs::write(&tmp, text).and_then(|()| std::fs::rename(&tmp, &path));
-        match result {
+        // Temporary file, sync, backup, rename: a failed or interrupted save never leaves half a file.
+        match self.doc.project.save(&path) {
             Ok(()) => {
                 self.remember(&path);
                 self.settings.last_file = Some(path.clone());
@@ -450,13 +447,7 @@ impl RigApp {
                 self.message = Some((format!("Saved {}", path.display()), false));
                 self.doc.saved(path);
             }
-            Err(e) => {
-                let _ = std::fs::remove_file(&tmp);
-                self.message = Some((
-                    format!("Could not save {}: {e}. Nothing was changed on disk.", path.display()),
-                    true,
-                ));
-            }
+            Err(e) => self.message = Some((format!("Could not save: {e}"), true)),
         }
     }
 
