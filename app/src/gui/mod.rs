@@ -11,6 +11,7 @@ mod palette;
 mod pluck;
 mod properties;
 mod readouts;
+pub mod recovery;
 pub mod samples;
 mod solver;
 pub mod units;
@@ -25,6 +26,7 @@ use serde::{Deserialize, Serialize};
 
 pub use document::Document;
 pub use readouts::ReadoutTab;
+pub use recovery::Recovery;
 pub use solver::{SolveOutcome, SolveRequest};
 pub use units::{Quantity, Units};
 pub use view::{Plane, RigView};
@@ -259,6 +261,8 @@ pub struct RigApp {
     pub show_help: bool,
     /// Solve times of recent solves (ms), newest last.
     pub solve_times: Vec<f64>,
+    /// Autosave of unsaved changes, and the copy offered at start after a crash.
+    pub recovery: Recovery,
     commands: Vec<Command>,
     /// A command waiting for "discard unsaved changes?".
     pending_discard: Option<Box<Command>>,
@@ -294,8 +298,14 @@ impl RigApp {
         Self::with_settings(&cc.egui_ctx, settings, file)
     }
 
-    /// Creates the app with given settings; `file` overrides the last project.
+    /// Creates the app with given settings; `file` overrides the last project. Autosave goes
+    /// to the user's data folder ([`recovery::data_dir`]).
     pub fn with_settings(ctx: &egui::Context, settings: Settings, file: Option<PathBuf>) -> Self {
+        Self::with_recovery(ctx, settings, file, Recovery::from_env())
+    }
+
+    /// [`RigApp::with_settings`] with autosave as given; a recovery copy found there is offered.
+    pub fn with_recovery(ctx: &egui::Context, settings: Settings, file: Option<PathBuf>, recovery: Recovery) -> Self {
         ctx.set_visuals(egui::Visuals::light());
         let wake_ctx = ctx.clone();
         let mut app = RigApp {
@@ -316,6 +326,7 @@ impl RigApp {
             show_about: false,
             show_help: false,
             solve_times: Vec::new(),
+            recovery,
             commands: Vec::new(),
             pending_discard: None,
             solver: solver::Solver::new(move || wake_ctx.request_repaint()),
@@ -337,6 +348,7 @@ impl RigApp {
             app.open_sample(sample);
         }
         app.solve_if_needed();
+        app.recovery.look();
         app
     }
 
@@ -454,7 +466,7 @@ impl RigApp {
     fn needs_discard_prompt(command: &Command) -> bool {
         matches!(
             command,
-            Command::New | Command::OpenDialog | Command::Open(_) | Command::OpenSample(_)
+            Command::New | Command::OpenDialog | Command::Open(_) | Command::OpenSample(_) | Command::Close
         )
     }
 
@@ -924,6 +936,7 @@ impl eframe::App for RigApp {
 
         about::windows(self, &ctx);
         self.discard_prompt(&ctx);
+        recovery::offer_modal(self, &ctx);
 
         let had_commands = !self.commands.is_empty();
         self.apply_commands();
@@ -935,6 +948,7 @@ impl eframe::App for RigApp {
         if self.applied != before {
             ctx.request_repaint();
         }
+        recovery::tick(self, &ctx);
         self.update_title(&ctx);
         if self.close_now {
             ctx.send_viewport_cmd(egui::ViewportCommand::Close);
@@ -948,6 +962,11 @@ impl eframe::App for RigApp {
 
     fn save(&mut self, storage: &mut dyn eframe::Storage) {
         eframe::set_value(storage, SETTINGS_KEY, &self.settings);
+    }
+
+    /// A clean exit: the recovery copy goes (or keeps the last changes if any are unsaved).
+    fn on_exit(&mut self, _gl: Option<&eframe::glow::Context>) {
+        self.recovery.exit(&self.doc);
     }
 }
 
