@@ -2,6 +2,8 @@
 
 use rigwright_core::{Equilibrium, Model, Project, Statics};
 
+pub mod robustness;
+
 /// Validates a project, panicking with the problems listed.
 pub fn model(p: &Project) -> Model {
     p.validate().unwrap_or_else(|e| panic!("invalid project: {e}"))
