@@ -42,18 +42,25 @@ fn dragging_an_anchor_of_the_canopy_net_resolves_every_step() {
     assert_eq!(app.doc.project.nodes[anchor].at.1, y0);
 }
 
-#[test]
-fn a_large_net_solves_on_the_worker_thread_without_blocking_the_frame() {
-    use std::time::{Duration, Instant};
-    let ctx = egui::Context::default();
-    let mut app = RigApp::with_settings(&ctx, Settings::default(), None);
-    let dir = std::env::temp_dir().join(format!("rigwright-large-{}", std::process::id()));
+/// An app with a 24×24 cable net (572 nodes, solved on the worker) open from a file in a
+/// scratch folder named after `name`; returns the app and the folder.
+fn app_with_large_net(ctx: &egui::Context, name: &str) -> (RigApp, std::path::PathBuf) {
+    let mut app = RigApp::with_settings(ctx, Settings::default(), None);
+    let dir = std::env::temp_dir().join(format!("rigwright-{name}-{}", std::process::id()));
     std::fs::create_dir_all(&dir).unwrap();
     let path = dir.join("net.rig.ron");
     let net = rigwright_core::gallery::cable_net(24, 1.0, 5.0e6, 5000.0, 4.0);
     std::fs::write(&path, net.to_ron()).unwrap();
     app.queue(Command::Open(path));
     app.apply_commands();
+    (app, dir)
+}
+
+#[test]
+fn a_large_net_solves_on_the_worker_thread_without_blocking_the_frame() {
+    use std::time::{Duration, Instant};
+    let ctx = egui::Context::default();
+    let (mut app, dir) = app_with_large_net(&ctx, "large");
     let start = Instant::now();
     app.solve_if_needed();
     let queued = start.elapsed();
@@ -70,5 +77,36 @@ fn a_large_net_solves_on_the_worker_thread_without_blocking_the_frame() {
         queued.as_secs_f64() * 1e3,
         app.solve_times.last().copied().unwrap_or(f64::NAN)
     );
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn a_newer_request_cancels_the_large_solve_in_flight_and_only_the_newest_answer_is_shown() {
+    use std::sync::Arc;
+    use std::time::{Duration, Instant};
+    let ctx = egui::Context::default();
+    let (mut app, dir) = app_with_large_net(&ctx, "cancel");
+    app.solve_if_needed();
+    assert!(app.solver_busy(), "a rig this size goes to the worker");
+    // Three quick edits while the first solve runs: each new request cancels the one before.
+    for step in 1..=3 {
+        app.queue(Command::Edit {
+            merge: Some("drag".into()),
+            apply: Box::new(move |p| p.nodes[0].at.1 = 0.01 * f64::from(step)),
+        });
+        app.apply_commands();
+        app.solve_if_needed();
+    }
+    let deadline = Instant::now() + Duration::from_secs(60);
+    while app.answer().is_none() && Instant::now() < deadline {
+        if let Some(d) = app.diagnostic() {
+            assert!(!d.contains("cancelled"), "a cancelled solve reached the screen: {d}");
+        }
+        std::thread::sleep(Duration::from_millis(5));
+        app.solve_if_needed();
+    }
+    assert!(app.answer().is_some(), "{:?}", app.diagnostic());
+    let shown = app.solved.as_ref().unwrap();
+    assert!(Arc::ptr_eq(&shown.model, &app.doc.model), "the answer shown is of the newest edit");
     std::fs::remove_dir_all(&dir).ok();
 }

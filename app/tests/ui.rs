@@ -5,12 +5,12 @@ use eframe::egui::{self, Pos2};
 use egui_kittest::Harness;
 use egui_kittest::kittest::{NodeT, Queryable};
 use rigwright::RigApp;
-use rigwright::gui::{Command, Quantity, Selection, Settings, Units};
+use rigwright::gui::{Command, Quantity, Recovery, Selection, Settings, Units};
 
 fn harness() -> Harness<'static, RigApp> {
     Harness::builder()
         .with_size(egui::vec2(1280.0, 800.0))
-        .build_eframe(|cc| RigApp::with_settings(&cc.egui_ctx, Settings::default(), None))
+        .build_eframe(|cc| RigApp::with_recovery(&cc.egui_ctx, Settings::default(), None, Recovery::off()))
 }
 
 /// Presses and releases the primary button at `p` on the Rig view.

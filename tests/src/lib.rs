@@ -2,6 +2,8 @@
 
 use rigwright_core::{Equilibrium, Model, Project, Statics};
 
+pub mod robustness;
+
 /// Validates a project, panicking with the problems listed.
 pub fn model(p: &Project) -> Model {
     p.validate().unwrap_or_else(|e| panic!("invalid project: {e}"))
@@ -104,4 +106,14 @@ pub fn case(name: &str, gravity: f64, loads: &[(&str, (f64, f64, f64))]) -> Case
             })
             .collect(),
     }
+}
+
+/// The two projects of the kill-during-save test: the same 24×24 cable net (about 100 KB of
+/// text) with different titles and pretensions, so the test can tell which one is on disk.
+pub fn save_loop_projects() -> [Project; 2] {
+    let mut a = rigwright_core::gallery::cable_net(24, 0.5, 2e6, 800.0, 0.5);
+    a.title = "save loop A".into();
+    let mut b = rigwright_core::gallery::cable_net(24, 0.5, 2e6, 1200.0, 0.5);
+    b.title = "save loop B".into();
+    [a, b]
 }

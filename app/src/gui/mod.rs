@@ -11,6 +11,7 @@ mod palette;
 mod pluck;
 mod properties;
 mod readouts;
+pub mod recovery;
 pub mod samples;
 pub mod sizing;
 mod solver;
@@ -26,6 +27,7 @@ use serde::{Deserialize, Serialize};
 
 pub use document::Document;
 pub use readouts::ReadoutTab;
+pub use recovery::Recovery;
 pub use solver::{SolveOutcome, SolveRequest};
 pub use units::{Quantity, Units};
 pub use view::{Plane, RigView};
@@ -262,6 +264,8 @@ pub struct RigApp {
     pub show_help: bool,
     /// Solve times of recent solves (ms), newest last.
     pub solve_times: Vec<f64>,
+    /// Autosave of unsaved changes, and the copy offered at start after a crash.
+    pub recovery: Recovery,
     commands: Vec<Command>,
     /// A command waiting for "discard unsaved changes?".
     pending_discard: Option<Box<Command>>,
@@ -297,8 +301,14 @@ impl RigApp {
         Self::with_settings(&cc.egui_ctx, settings, file)
     }
 
-    /// Creates the app with given settings; `file` overrides the last project.
+    /// Creates the app with given settings; `file` overrides the last project. Autosave goes
+    /// to the user's data folder ([`recovery::data_dir`]).
     pub fn with_settings(ctx: &egui::Context, settings: Settings, file: Option<PathBuf>) -> Self {
+        Self::with_recovery(ctx, settings, file, Recovery::from_env())
+    }
+
+    /// [`RigApp::with_settings`] with autosave as given; a recovery copy found there is offered.
+    pub fn with_recovery(ctx: &egui::Context, settings: Settings, file: Option<PathBuf>, recovery: Recovery) -> Self {
         ctx.set_visuals(egui::Visuals::light());
         let wake_ctx = ctx.clone();
         let mut app = RigApp {
@@ -320,6 +330,7 @@ impl RigApp {
             show_about: false,
             show_help: false,
             solve_times: Vec::new(),
+            recovery,
             commands: Vec::new(),
             pending_discard: None,
             solver: solver::Solver::new(move || wake_ctx.request_repaint()),
@@ -341,6 +352,7 @@ impl RigApp {
             app.open_sample(sample);
         }
         app.solve_if_needed();
+        app.recovery.look();
         app
     }
 
@@ -442,11 +454,8 @@ impl RigApp {
     }
 
     fn save_to(&mut self, path: PathBuf) {
-        let text = self.doc.project.to_ron();
-        // Write to a sibling temporary file, then rename: a failed save never leaves half a file.
-        let tmp = path.with_extension("ron.tmp");
-        let result = std::fs::write(&tmp, text).and_then(|()| std::fs::rename(&tmp, &path));
-        match result {
+        // Temporary file, sync, backup, rename: a failed or interrupted save never leaves half a file.
+        match self.doc.project.save(&path) {
             Ok(()) => {
                 self.remember(&path);
                 self.settings.last_file = Some(path.clone());
@@ -454,20 +463,14 @@ impl RigApp {
                 self.message = Some((format!("Saved {}", path.display()), false));
                 self.doc.saved(path);
             }
-            Err(e) => {
-                let _ = std::fs::remove_file(&tmp);
-                self.message = Some((
-                    format!("Could not save {}: {e}. Nothing was changed on disk.", path.display()),
-                    true,
-                ));
-            }
+            Err(e) => self.message = Some((format!("Could not save: {e}"), true)),
         }
     }
 
     fn needs_discard_prompt(command: &Command) -> bool {
         matches!(
             command,
-            Command::New | Command::OpenDialog | Command::Open(_) | Command::OpenSample(_)
+            Command::New | Command::OpenDialog | Command::Open(_) | Command::OpenSample(_) | Command::Close
         )
     }
 
@@ -938,6 +941,7 @@ impl eframe::App for RigApp {
         about::windows(self, &ctx);
         sizing::windows(self, &ctx);
         self.discard_prompt(&ctx);
+        recovery::offer_modal(self, &ctx);
 
         let had_commands = !self.commands.is_empty();
         self.apply_commands();
@@ -949,6 +953,7 @@ impl eframe::App for RigApp {
         if self.applied != before {
             ctx.request_repaint();
         }
+        recovery::tick(self, &ctx);
         self.update_title(&ctx);
         if self.close_now {
             ctx.send_viewport_cmd(egui::ViewportCommand::Close);
@@ -962,6 +967,11 @@ impl eframe::App for RigApp {
 
     fn save(&mut self, storage: &mut dyn eframe::Storage) {
         eframe::set_value(storage, SETTINGS_KEY, &self.settings);
+    }
+
+    /// A clean exit: the recovery copy goes (or keeps the last changes if any are unsaved).
+    fn on_exit(&mut self, _gl: Option<&eframe::glow::Context>) {
+        self.recovery.exit(&self.doc);
     }
 }
 

@@ -1,9 +1,11 @@
-//! Solving off the UI thread: requests go to a worker, the newest request wins.
+//! Solving off the UI thread: requests go to a worker, the newest request wins: a newer
+//! request cancels the solve in flight (between Newton iterations) and its outcome is dropped.
 //!
 //! Responsible for running `rigwright-core` solvers for the app (inline for small rigs, on a
 //! worker thread for large ones) and handing back plain outcomes. Computes no mechanics itself.
 
 use std::sync::Arc;
+use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::mpsc::{Receiver, Sender, channel};
 use std::time::{Duration, Instant};
 
@@ -42,13 +44,22 @@ pub struct SolveOutcome {
 
 /// Runs one request on the calling thread.
 pub fn solve_now(req: &SolveRequest) -> SolveOutcome {
+    solve_cancellable(req, None)
+}
+
+/// Runs one request on the calling thread; raising `cancel` abandons the solve.
+fn solve_cancellable(req: &SolveRequest, cancel: Option<&Arc<AtomicBool>>) -> SolveOutcome {
     let start = Instant::now();
+
     let model = &*req.model;
     let warm = req.warm.as_deref().filter(|w| w.len() == model.nodes.len());
     let (result, stiffness) = match req.hold {
-        Some((node, at)) => (Statics::holding(model, node).solve_held(req.case, at, warm), None),
+        Some((node, at)) => (
+            cancellable(Statics::holding(model, node), cancel).solve_held(req.case, at, warm),
+            None,
+        ),
         None => {
-            let statics = Statics::new(model);
+            let statics = cancellable(Statics::new(model), cancel);
             let result = statics.solve(req.case, warm);
             let stiffness = match (&result, req.stiffness_at) {
                 (Ok(eq), Some(n)) if eq.stability.is_stable() => Some(statics.node_stiffness(eq, n).map_err(|e| e.to_string())),
@@ -68,6 +79,14 @@ pub fn solve_now(req: &SolveRequest) -> SolveOutcome {
     }
 }
 
+/// `statics`, abandoned when `cancel` is raised.
+fn cancellable<'m>(statics: Statics<'m>, cancel: Option<&Arc<AtomicBool>>) -> Statics<'m> {
+    match cancel {
+        Some(flag) => statics.cancel_with(flag.clone()),
+        None => statics,
+    }
+}
+
 /// Free degrees of freedom of a model, roughly (free axes of all nodes).
 pub fn free_dofs(model: &Model) -> usize {
     model.nodes.iter().map(|n| n.support.fixed.iter().filter(|f| !**f).count()).sum()
@@ -75,7 +94,9 @@ pub fn free_dofs(model: &Model) -> usize {
 
 /// Sends requests to a worker thread and collects the newest outcome.
 pub struct Solver {
-    to_worker: Sender<SolveRequest>,
+    to_worker: Sender<(SolveRequest, Arc<AtomicBool>)>,
+    /// Cancel flag of the last request sent to the worker.
+    in_flight: Option<Arc<AtomicBool>>,
     from_worker: Receiver<SolveOutcome>,
     /// Generation of the newest request sent.
     pub latest: u64,
@@ -86,7 +107,7 @@ pub struct Solver {
 impl Solver {
     /// Starts the worker. `wake` is called after each outcome (to repaint the window).
     pub fn new(wake: impl Fn() + Send + 'static) -> Self {
-        let (to_worker, requests) = channel::<SolveRequest>();
+        let (to_worker, requests) = channel::<(SolveRequest, Arc<AtomicBool>)>();
         let (answers, from_worker) = channel::<SolveOutcome>();
         std::thread::Builder::new()
             .name("rigwright-solver".into())
@@ -96,7 +117,16 @@ impl Solver {
                     while let Ok(newer) = requests.try_recv() {
                         req = newer;
                     }
-                    if answers.send(solve_now(&req)).is_err() {
+                    let (req, cancel) = req;
+                    if cancel.load(Ordering::Relaxed) {
+                        continue;
+                    }
+                    let outcome = solve_cancellable(&req, Some(&cancel));
+                    // Cancelled (or finished as it was cancelled): a newer request is coming.
+                    if cancel.load(Ordering::Relaxed) {
+                        continue;
+                    }
+                    if answers.send(outcome).is_err() {
                         break;
                     }
                     wake();
@@ -105,6 +135,7 @@ impl Solver {
             .expect("the solver thread starts");
         Solver {
             to_worker,
+            in_flight: None,
             from_worker,
             latest: 0,
             busy: false,
@@ -115,17 +146,25 @@ impl Solver {
     pub fn submit(&mut self, mut req: SolveRequest) -> Option<SolveOutcome> {
         self.latest += 1;
         req.generation = self.latest;
+        // Whatever the worker is solving is stale now.
+        if let Some(flag) = self.in_flight.take() {
+            flag.store(true, Ordering::Relaxed);
+        }
         if free_dofs(&req.model) <= INLINE_DOFS {
             self.busy = false;
             return Some(solve_now(&req));
         }
         self.busy = true;
         // If the worker is gone the request is solved here instead.
-        match self.to_worker.send(req) {
-            Ok(()) => None,
+        let flag = Arc::new(AtomicBool::new(false));
+        match self.to_worker.send((req, flag.clone())) {
+            Ok(()) => {
+                self.in_flight = Some(flag);
+                None
+            }
             Err(e) => {
                 self.busy = false;
-                Some(solve_now(&e.0))
+                Some(solve_now(&e.0.0))
             }
         }
     }

@@ -14,6 +14,9 @@
 //! nearest minimum is on another branch (a snap-through). The step is then cut, and when it
 //! cannot be cut further the limit is reported instead of a silently different answer.
 
+use std::sync::Arc;
+use std::sync::atomic::{AtomicBool, Ordering};
+
 use nalgebra::{DMatrix, SymmetricEigen};
 
 use super::result::{Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, Principal, Stability};
@@ -76,6 +79,9 @@ pub enum SolveError {
     /// The stiffness is not positive definite, so no condensed stiffness exists.
     #[error("no tangent stiffness at an equilibrium that is not stable: {0}")]
     NotStable(String),
+    /// The cancel flag given with [`Statics::cancel_with`] was raised before the solve ended.
+    #[error("solve cancelled after {iterations} iterations (a newer request replaced it, or it was stopped); solve again for the answer")]
+    Cancelled { iterations: usize },
 }
 
 /// How one Newton solve ended.
@@ -86,6 +92,8 @@ enum NewtonFail {
     Stalled { residual: f64 },
     /// A node ran away (mechanism).
     Runaway { node: usize, direction: Vec3 },
+    /// The cancel flag was raised.
+    Cancelled,
 }
 
 struct Converged {
@@ -118,6 +126,8 @@ pub struct Statics<'m> {
     /// Largest member rate `EA/L0` or `k` (N/m): the stiffness scale when all are slack.
     rate_scale: f64,
     pub settings: SolveSettings,
+    /// Raised by another thread to abandon a solve (checked before every Newton iteration).
+    cancel: Option<Arc<AtomicBool>>,
 }
 
 impl<'m> Statics<'m> {
@@ -140,7 +150,20 @@ impl<'m> Statics<'m> {
             held,
             rate_scale,
             settings: SolveSettings::default(),
+            cancel: None,
         }
+    }
+
+    /// Abandons solves when `flag` is raised: [`Statics::solve`] and
+    /// [`Statics::solve_held`] then return [`SolveError::Cancelled`] before their next Newton
+    /// iteration, so a long solve on a worker thread can be dropped for a newer request.
+    pub fn cancel_with(mut self, flag: Arc<AtomicBool>) -> Self {
+        self.cancel = Some(flag);
+        self
+    }
+
+    fn cancelled(&self) -> bool {
+        self.cancel.as_ref().is_some_and(|f| f.load(Ordering::Relaxed))
     }
 
     /// The model being solved.
@@ -220,10 +243,12 @@ impl<'m> Statics<'m> {
             if let Some((node, p)) = hold {
                 pos[node] = p;
             }
-            if let Ok(c) = self.newton(&mut pos, &load, 1.0, false, &mut iterations)
-                && c.definiteness != Definiteness::Indefinite
-            {
-                return Ok(self.finish(case, pos, &load, c, LoadPath { iterations, steps: 1 }, hold));
+            match self.newton(&mut pos, &load, 1.0, false, &mut iterations) {
+                Ok(c) if c.definiteness != Definiteness::Indefinite => {
+                    return Ok(self.finish(case, pos, &load, c, LoadPath { iterations, steps: 1 }, hold));
+                }
+                Err(NewtonFail::Cancelled) => return Err(SolveError::Cancelled { iterations }),
+                _ => {}
             }
         }
 
@@ -232,6 +257,7 @@ impl<'m> Statics<'m> {
         let mut state = match self.newton(&mut pos, &load, 0.0, false, &mut iterations) {
             Ok(c) => c,
             Err(NewtonFail::Runaway { node, direction }) => return Err(self.mechanism(node, direction)),
+            Err(NewtonFail::Cancelled) => return Err(SolveError::Cancelled { iterations }),
             // No balanced unloaded state (e.g. every cable slack): step the load from the
             // drawn geometry without path-following checks.
             Err(_) => {
@@ -253,6 +279,9 @@ impl<'m> Statics<'m> {
                     load_factor: lambda,
                 });
             }
+            if self.cancelled() {
+                return Err(SolveError::Cancelled { iterations });
+            }
             let target = (lambda + step).min(1.0);
             let strict = state.definiteness == Definiteness::Positive;
             let mut trial = pos.clone();
@@ -265,6 +294,7 @@ impl<'m> Statics<'m> {
                     step = (step * 2.0).min(1.0);
                 }
                 Err(NewtonFail::Runaway { node, direction }) => return Err(self.mechanism(node, direction)),
+                Err(NewtonFail::Cancelled) => return Err(SolveError::Cancelled { iterations }),
                 other => {
                     step *= 0.5;
                     if step < self.settings.min_load_step {
@@ -318,6 +348,9 @@ impl<'m> Statics<'m> {
             }
             if it == s.max_iterations_per_step || *total >= s.max_iterations {
                 return Err(NewtonFail::Stalled { residual: rel });
+            }
+            if self.cancelled() {
+                return Err(NewtonFail::Cancelled);
             }
             *total += 1;
             // Direction: (K + μI) Δ = −r.
@@ -651,4 +684,25 @@ pub fn lowest_mode(sys: &System, values: &[f64]) -> (f64, Vec<f64>) {
     let nv = norm(&v);
     v.iter_mut().for_each(|x| *x /= nv);
     (rq, v)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::gallery::cable_net;
+
+    #[test]
+    fn a_raised_cancel_flag_stops_the_solve_before_its_first_iteration() {
+        let model = cable_net(8, 1.0, 1e6, 1000.0, 2.0).validate().unwrap();
+        let flag = Arc::new(AtomicBool::new(true));
+        let statics = Statics::new(&model).cancel_with(flag.clone());
+        match statics.solve(0, None) {
+            Err(e @ SolveError::Cancelled { iterations: 0 }) => assert!(e.to_string().contains("solve again"), "{e}"),
+            other => panic!("{other:?}"),
+        }
+        // Lowered again, the same solver gives the answer a solver without a flag gives.
+        flag.store(false, Ordering::Relaxed);
+        let plain = Statics::new(&model).solve(0, None).unwrap();
+        assert_eq!(statics.solve(0, None).unwrap(), plain);
+    }
 }

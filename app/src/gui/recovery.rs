@@ -1,0 +1,491 @@
+//! Autosave and recovery of the open document.
+//!
+//! While the document has unsaved changes, a copy is written every [`Recovery::interval`]
+//! (30 s by default) to `recovery.rig.ron` in the user's data folder, on a worker thread with
+//! the crash-safe [`save_atomic`], so the frame never waits for the disk. The copy is removed
+//! once the document is clean again (saved, discarded, another opened) and on a clean exit.
+//! A copy found at start means the last session did not end cleanly: the app offers to
+//! recover it (Recover / Discard); a discarded copy is kept once as
+//! `discarded-recovery.rig.ron`, never deleted outright.
+//!
+//! The copy is an ordinary project file with two comment lines on top naming where the
+//! document came from, so it can also be opened by hand.
+//!
+//! Not responsible for saving the user's own file (see `RigApp::save_to`) or the settings.
+
+use std::ffi::OsString;
+use std::path::{Path, PathBuf};
+use std::sync::mpsc;
+use std::time::{Duration, Instant, SystemTime};
+
+use eframe::egui;
+use rigwright_core::Project;
+use rigwright_core::model::{backup_path, save_atomic};
+
+use super::{Document, RigApp};
+
+/// The environment variable that overrides the data folder (tests, portable installs).
+pub const DATA_DIR_VAR: &str = "RIGWRIGHT_DATA_DIR";
+/// Name of the recovery copy in the data folder.
+pub const RECOVERY_FILE: &str = "recovery.rig.ron";
+/// Name a discarded recovery copy is kept under.
+pub const DISCARDED_FILE: &str = "discarded-recovery.rig.ron";
+/// Time between autosaves while there are unsaved changes.
+pub const DEFAULT_INTERVAL: Duration = Duration::from_secs(30);
+
+const HEADER: &str = "// Rigwright recovery copy: unsaved changes kept by autosave.\n";
+const SOURCE: &str = "// source: ";
+const NEVER_SAVED: &str = "(never saved)";
+
+/// The user's data folder for Rigwright: `$RIGWRIGHT_DATA_DIR` when set (empty: none, which
+/// turns autosave off), else the platform's place (XDG data home on Linux and BSD,
+/// `~/Library/Application Support` on macOS, `%APPDATA%` on Windows).
+pub fn data_dir() -> Option<PathBuf> {
+    data_dir_with(|k| std::env::var_os(k))
+}
+
+/// [`data_dir`] with the environment given as a lookup.
+pub fn data_dir_with(var: impl Fn(&str) -> Option<OsString>) -> Option<PathBuf> {
+    let set = |k: &str| var(k).filter(|v| !v.is_empty()).map(PathBuf::from);
+    if let Some(v) = var(DATA_DIR_VAR) {
+        return (!v.is_empty()).then(|| PathBuf::from(v));
+    }
+    if cfg!(windows) {
+        return set("APPDATA").map(|d| d.join("Rigwright"));
+    }
+    if cfg!(target_os = "macos") {
+        return set("HOME").map(|h| h.join("Library/Application Support/Rigwright"));
+    }
+    set("XDG_DATA_HOME")
+        .filter(|d| d.is_absolute())
+        .or_else(|| set("HOME").map(|h| h.join(".local/share")))
+        .map(|d| d.join("rigwright"))
+}
+
+/// A recovery copy found at start, waiting for the user's answer.
+pub struct Offer {
+    /// The recovery copy.
+    pub file: PathBuf,
+    /// The file the document was loaded from or saved to, if any.
+    pub source: Option<PathBuf>,
+    /// When the copy was written.
+    pub kept: Option<SystemTime>,
+    /// The copy, parsed, or why it cannot be read.
+    pub project: Result<Project, String>,
+}
+
+impl Offer {
+    /// Name of the document, as the title bar would show it.
+    pub fn name(&self) -> String {
+        match (&self.source, &self.project) {
+            (Some(p), _) => p.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default(),
+            (None, Ok(p)) if !p.title.is_empty() => p.title.clone(),
+            _ => "Untitled rig".into(),
+        }
+    }
+}
+
+enum Job {
+    Write { text: String },
+    Remove,
+    Flush(mpsc::Sender<()>),
+}
+
+/// Autosave state of the app.
+pub struct Recovery {
+    dir: Option<PathBuf>,
+    /// Time between autosaves while there are unsaved changes.
+    pub interval: Duration,
+    jobs: Option<mpsc::Sender<Job>>,
+    errors: Option<mpsc::Receiver<String>>,
+    worker: Option<std::thread::JoinHandle<()>>,
+    /// When the next autosave is due (set at the first unsaved change after the last one).
+    due: Option<Instant>,
+    /// Document revision last written.
+    written: Option<u64>,
+    /// A recovery copy of this session may be on disk.
+    on_disk: bool,
+    /// A copy from an earlier session, offered at start.
+    pub offer: Option<Offer>,
+}
+
+impl Recovery {
+    /// No autosave and no recovery.
+    pub fn off() -> Self {
+        Recovery {
+            dir: None,
+            interval: DEFAULT_INTERVAL,
+            jobs: None,
+            errors: None,
+            worker: None,
+            due: None,
+            written: None,
+            on_disk: false,
+            offer: None,
+        }
+    }
+
+    /// Autosave into `dir`.
+    pub fn in_dir(dir: PathBuf) -> Self {
+        Recovery {
+            dir: Some(dir),
+            ..Self::off()
+        }
+    }
+
+    /// Autosave into [`data_dir`], when there is one.
+    pub fn from_env() -> Self {
+        match data_dir() {
+            Some(d) => Self::in_dir(d),
+            None => Self::off(),
+        }
+    }
+
+    /// Path of the recovery copy, when autosave is on.
+    pub fn file(&self) -> Option<PathBuf> {
+        self.dir.as_ref().map(|d| d.join(RECOVERY_FILE))
+    }
+
+    /// Looks for a copy left by a session that did not end cleanly and offers it.
+    pub fn look(&mut self) {
+        let Some(file) = self.file().filter(|f| f.exists()) else {
+            return;
+        };
+        let kept = std::fs::metadata(&file).and_then(|m| m.modified()).ok();
+        let (source, project) = match std::fs::read_to_string(&file) {
+            Ok(text) => (source_of(&text), Project::from_ron(&text).map_err(|e| e.to_string())),
+            Err(e) => (None, Err(e.to_string())),
+        };
+        self.offer = Some(Offer {
+            file,
+            source,
+            kept,
+            project,
+        });
+    }
+
+    /// Waits until every queued write or removal is done (exit, tests).
+    pub fn flush(&self) {
+        if let Some(jobs) = &self.jobs {
+            let (done, wait) = mpsc::channel();
+            if jobs.send(Job::Flush(done)).is_ok() {
+                let _ = wait.recv();
+            }
+        }
+    }
+
+    fn send(&mut self, job: Job) {
+        let Some(dir) = self.dir.clone() else { return };
+        if self.jobs.is_none() {
+            let (jobs, rx) = mpsc::channel();
+            let (err_tx, errors) = mpsc::channel();
+            let worker = std::thread::Builder::new()
+                .name("autosave".into())
+                .spawn(move || work(&dir, &rx, &err_tx));
+            match worker {
+                Ok(w) => {
+                    self.jobs = Some(jobs);
+                    self.errors = Some(errors);
+                    self.worker = Some(w);
+                }
+                Err(_) => return,
+            }
+        }
+        if let Some(jobs) = &self.jobs {
+            let _ = jobs.send(job);
+        }
+    }
+
+    /// Writes the document now (on the worker) when it has changes not yet kept.
+    fn write(&mut self, doc: &Document) {
+        if self.written == Some(doc.revision) && self.on_disk {
+            return;
+        }
+        let text = recovery_text(&doc.project, doc.path.as_deref());
+        self.send(Job::Write { text });
+        self.written = Some(doc.revision);
+        self.on_disk = true;
+        self.due = None;
+    }
+
+    fn remove(&mut self) {
+        if self.on_disk {
+            self.send(Job::Remove);
+            self.on_disk = false;
+        }
+        self.written = None;
+        self.due = None;
+    }
+
+    /// A clean exit: keeps a dirty document's latest changes, else removes the copy; waits
+    /// for the disk either way.
+    pub fn exit(&mut self, doc: &Document) {
+        if self.offer.is_some() {
+            // Not answered: keep the old copy for the next start.
+        } else if doc.dirty {
+            self.write(doc);
+        } else {
+            self.remove();
+        }
+        self.flush();
+        self.jobs = None;
+        if let Some(w) = self.worker.take() {
+            let _ = w.join();
+        }
+    }
+}
+
+/// The worker: applies jobs in order until the app drops the sender.
+fn work(dir: &Path, jobs: &mpsc::Receiver<Job>, errors: &mpsc::Sender<String>) {
+    let file = dir.join(RECOVERY_FILE);
+    while let Ok(job) = jobs.recv() {
+        match job {
+            Job::Write { text } => {
+                let result = std::fs::create_dir_all(dir)
+                    .map_err(|e| format!("{}: {e}; check that the data folder can be created", dir.display()))
+                    .and_then(|()| save_atomic(&file, &text).map_err(|e| e.to_string()));
+                if let Err(e) = result {
+                    let _ = errors.send(e);
+                }
+            }
+            Job::Remove => {
+                let _ = std::fs::remove_file(&file);
+                let _ = std::fs::remove_file(backup_path(&file));
+            }
+            Job::Flush(done) => {
+                let _ = done.send(());
+            }
+        }
+    }
+}
+
+/// The recovery copy's text: two comment lines, then the project as saved.
+pub fn recovery_text(project: &Project, source: Option<&Path>) -> String {
+    let source = source
+        .map(|p| p.display().to_string())
+        .filter(|s| !s.contains(['\n', '\r']))
+        .unwrap_or_else(|| NEVER_SAVED.to_string());
+    format!("{HEADER}{SOURCE}{source}\n{}", project.to_ron())
+}
+
+/// The source path named in a recovery copy's comment lines.
+fn source_of(text: &str) -> Option<PathBuf> {
+    text.lines()
+        .take(4)
+        .find_map(|l| l.strip_prefix(SOURCE))
+        .filter(|s| *s != NEVER_SAVED && !s.is_empty())
+        .map(PathBuf::from)
+}
+
+/// Once a frame: autosave when due, remove the copy when the document is clean, and report
+/// autosave failures in the status bar.
+pub fn tick(app: &mut RigApp, ctx: &egui::Context) {
+    if let Some(e) = app.recovery.errors.as_ref().and_then(|r| r.try_iter().last()) {
+        app.message = Some((
+            format!("Autosave failed: {e}. Unsaved changes are not being kept for recovery; save the project."),
+            true,
+        ));
+    }
+    let r = &mut app.recovery;
+    if r.dir.is_none() || r.offer.is_some() {
+        return;
+    }
+    if !app.doc.dirty {
+        r.remove();
+        return;
+    }
+    if r.written == Some(app.doc.revision) {
+        return;
+    }
+    let now = Instant::now();
+    let due = *r.due.get_or_insert(now + r.interval);
+    if now >= due {
+        r.write(&app.doc);
+    } else {
+        ctx.request_repaint_after(due - now);
+    }
+}
+
+/// The Recover / Discard question, while a copy from an earlier session waits.
+pub fn offer_modal(app: &mut RigApp, ctx: &egui::Context) {
+    let Some(offer) = app.recovery.offer.as_ref() else {
+        return;
+    };
+    let name = offer.name();
+    let when = offer.kept.map(describe_time).unwrap_or_else(|| "at an unknown time".into());
+    let mut answer = None;
+    egui::Modal::new(egui::Id::unique("recovery-offer")).show(ctx, |ui| {
+        ui.heading("Recover unsaved changes?");
+        ui.label(format!(
+            "Rigwright did not close cleanly last time. Unsaved changes to `{name}` were kept {when}."
+        ));
+        if let Some(s) = &offer.source {
+            ui.label(format!("Project file: {}", s.display()));
+        }
+        ui.label(format!("Recovery copy: {}", offer.file.display()));
+        if let Err(e) = &offer.project {
+            ui.colored_label(
+                ui.visuals().error_fg_color,
+                format!("The copy cannot be read: {e}. Discard keeps it as {DISCARDED_FILE} for a look by hand."),
+            );
+        }
+        ui.add_space(8.0);
+        ui.horizontal(|ui| {
+            let can = offer.project.is_ok();
+            if ui
+                .add_enabled(can, egui::Button::new("Recover"))
+                .on_hover_text("Open the recovered changes; save them to keep them")
+                .clicked()
+            {
+                answer = Some(true);
+            }
+            if ui
+                .button("Discard")
+                .on_hover_text(format!("Keep the current project; the copy is kept once as {DISCARDED_FILE}"))
+                .clicked()
+            {
+                answer = Some(false);
+            }
+        });
+    });
+    match answer {
+        Some(true) => recover(app),
+        Some(false) => discard(app),
+        None => {}
+    }
+}
+
+/// Opens the offered copy as an unsaved document (the copy stays until it is saved).
+pub fn recover(app: &mut RigApp) {
+    let Some(offer) = app.recovery.offer.take() else { return };
+    let Ok(project) = offer.project else {
+        app.recovery.offer = Some(offer);
+        return;
+    };
+    let source = offer.source.filter(|p| p.parent().is_some_and(Path::exists));
+    // A copy of a document that was mid-edit may not be valid; open it as an edit then, so
+    // its problems are listed rather than refused.
+    let doc = match Document::open(project.clone(), source.clone()) {
+        Ok(mut d) => {
+            d.dirty = true;
+            d
+        }
+        Err(_) => {
+            let mut d = Document::empty();
+            d.edit(None, move |p| *p = project);
+            d.path = source;
+            d
+        }
+    };
+    app.replace_document(doc);
+    // The copy on disk is this session's now: kept until the document is saved.
+    app.recovery.on_disk = true;
+    app.message = Some((
+        format!("Recovered unsaved changes to `{}`; save to keep them", app.doc.name()),
+        false,
+    ));
+}
+
+/// Sets the offered copy aside as [`DISCARDED_FILE`] and keeps the current project.
+pub fn discard(app: &mut RigApp) {
+    let Some(offer) = app.recovery.offer.take() else { return };
+    let aside = offer.file.with_file_name(DISCARDED_FILE);
+    match std::fs::rename(&offer.file, &aside) {
+        Ok(()) => {
+            let _ = std::fs::remove_file(backup_path(&offer.file));
+            app.message = Some((format!("Discarded the recovery copy (kept once as {})", aside.display()), false));
+        }
+        Err(e) => {
+            app.message = Some((
+                format!(
+                    "Could not set the recovery copy {} aside: {e}; remove it by hand if it is not needed",
+                    offer.file.display()
+                ),
+                true,
+            ))
+        }
+    }
+}
+
+/// "on 2025-03-04 at 10:22 UTC (5 min ago)".
+fn describe_time(t: SystemTime) -> String {
+    let Ok(since_epoch) = t.duration_since(SystemTime::UNIX_EPOCH) else {
+        return "at an unknown time".into();
+    };
+    let secs = since_epoch.as_secs();
+    let (y, m, d) = civil_from_days((secs / 86_400) as i64);
+    let (hh, mm) = ((secs % 86_400) / 3600, (secs % 3600) / 60);
+    let ago = match SystemTime::now().duration_since(t).map(|d| d.as_secs()) {
+        Ok(s) if s < 60 => "just now".to_string(),
+        Ok(s) if s < 3600 => format!("{} min ago", s / 60),
+        Ok(s) if s < 48 * 3600 => format!("{} h ago", s / 3600),
+        Ok(s) => format!("{} days ago", s / 86_400),
+        Err(_) => "in the future; check the clock".to_string(),
+    };
+    format!("on {y:04}-{m:02}-{d:02} at {hh:02}:{mm:02} UTC ({ago})")
+}
+
+/// Proleptic Gregorian date of a day count from 1970-01-01 (the "civil from days" algorithm
+/// of H. Hinnant, "chrono-Compatible Low-Level Date Algorithms"; from memory).
+fn civil_from_days(z: i64) -> (i64, u32, u32) {
+    let z = z + 719_468;
+    let era = z.div_euclid(146_097);
+    let doe = z.rem_euclid(146_097);
+    let yoe = (doe - doe / 1460 + doe / 36_524 - doe / 146_096) / 365;
+    let doy = doe - (365 * yoe + yoe / 4 - yoe / 100);
+    let mp = (5 * doy + 2) / 153;
+    let d = (doy - (153 * mp + 2) / 5 + 1) as u32;
+    let m = if mp < 10 { mp + 3 } else { mp - 9 } as u32;
+    let y = yoe + era * 400 + i64::from(m <= 2);
+    (y, m, d)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_override_wins_and_an_empty_override_turns_autosave_off() {
+        let env = |pairs: &'static [(&'static str, &'static str)]| {
+            move |k: &str| pairs.iter().find(|(n, _)| *n == k).map(|(_, v)| OsString::from(v))
+        };
+        assert_eq!(
+            data_dir_with(env(&[(DATA_DIR_VAR, "/tmp/rw"), ("HOME", "/home/u")])),
+            Some(PathBuf::from("/tmp/rw"))
+        );
+        assert_eq!(data_dir_with(env(&[(DATA_DIR_VAR, ""), ("HOME", "/home/u")])), None);
+        if cfg!(all(unix, not(target_os = "macos"))) {
+            assert_eq!(
+                data_dir_with(env(&[("HOME", "/home/u")])),
+                Some(PathBuf::from("/home/u/.local/share/rigwright"))
+            );
+            assert_eq!(
+                data_dir_with(env(&[("XDG_DATA_HOME", "/d"), ("HOME", "/home/u")])),
+                Some(PathBuf::from("/d/rigwright"))
+            );
+            // The XDG base directory specification ignores relative paths.
+            assert_eq!(
+                data_dir_with(env(&[("XDG_DATA_HOME", "rel"), ("HOME", "/home/u")])),
+                Some(PathBuf::from("/home/u/.local/share/rigwright"))
+            );
+        }
+    }
+
+    #[test]
+    fn a_recovery_copy_names_its_source_and_loads_as_the_project() {
+        let p = Project::new("copy");
+        let text = recovery_text(&p, Some(Path::new("/work/rigs/a.rig.ron")));
+        assert_eq!(source_of(&text), Some(PathBuf::from("/work/rigs/a.rig.ron")));
+        assert_eq!(Project::from_ron(&text).unwrap(), p);
+        assert_eq!(source_of(&recovery_text(&p, None)), None);
+    }
+
+    #[test]
+    fn days_since_1970_become_calendar_dates() {
+        // Checked against well-known dates (common practice): the epoch, a leap day, Y2K.
+        assert_eq!(civil_from_days(0), (1970, 1, 1));
+        assert_eq!(civil_from_days(11_016), (2000, 2, 29));
+        assert_eq!(civil_from_days(10_957), (2000, 1, 1));
+        assert_eq!(civil_from_days(-1), (1969, 12, 31));
+    }
+}
