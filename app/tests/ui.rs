@@ -416,3 +416,39 @@ fn importing_a_parts_file_adds_its_parts_and_a_bad_one_changes_nothing() {
     assert!(is_error && msg.contains("part `x`"), "{msg}");
     std::fs::remove_file(bad).ok();
 }
+
+/// Steps frames (without waiting for the UI to settle) until `done` or 60 s pass.
+fn step_until(h: &mut Harness<'static, RigApp>, done: impl Fn(&RigApp) -> bool) {
+    let start = std::time::Instant::now();
+    while !done(h.state()) && start.elapsed().as_secs() < 60 {
+        h.step();
+        std::thread::sleep(std::time::Duration::from_millis(20));
+    }
+    assert!(done(h.state()), "timed out");
+}
+
+#[test]
+fn modes_and_checks_of_a_large_rig_run_beside_the_window() {
+    let mut h = harness();
+    let net = rigwright_core::gallery::cable_net(22, 1.0, 5.0e6, 5000.0, 2.0);
+    let path = std::env::temp_dir().join(format!("rigwright-large-{}.rig.ron", std::process::id()));
+    std::fs::write(&path, net.to_ron()).unwrap();
+    h.state_mut().queue(Command::Open(path.clone()));
+    h.step();
+    step_until(&mut h, |app| app.answer().is_some());
+    h.get_by_label("Modes").click();
+    h.step();
+    // The first frames show the work in progress; the window keeps drawing meanwhile.
+    assert!(h.state().modes_job.is_some(), "the modes of 1,200 free DOFs run on another thread");
+    step_until(&mut h, |app| app.modes.is_some());
+    assert!(h.state().modes.as_ref().unwrap().result.is_ok());
+    h.get_by_label("Checks").click();
+    h.step();
+    assert!(h.state().sizing.checking(), "a 480-node rig is checked on another thread");
+    step_until(&mut h, |app| app.sizing.report().is_some());
+    assert_eq!(
+        h.state().sizing.report().unwrap().members.len(),
+        h.state().doc.project.members.len()
+    );
+    std::fs::remove_file(path).ok();
+}

@@ -5,6 +5,7 @@
 //! there). Not responsible for mechanics: every number comes from `rigwright-core`.
 
 mod about;
+mod background;
 mod document;
 mod menus;
 mod palette;
@@ -254,6 +255,8 @@ pub struct RigApp {
     pub pluck: Option<pluck::PluckSession>,
     /// Natural modes of the current answer (computed when the Modes tab is shown).
     pub modes: Option<pluck::ModesState>,
+    /// Modes of a large rig being computed on another thread.
+    pub modes_job: Option<pluck::ModesJob>,
     /// Start a Pluck when a pulled node is let go.
     pub pluck_on_release: bool,
     /// Checks, Sweep and the spring designer.
@@ -325,6 +328,7 @@ impl RigApp {
             sizing: sizing::SizingState::default(),
             pluck: None,
             modes: None,
+            modes_job: None,
             pluck_on_release: true,
             message: None,
             show_about: false,

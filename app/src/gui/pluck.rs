@@ -14,6 +14,7 @@ use rigwright_core::dynamics::{Modes, Motion, MotionSettings, modes, spectrum::s
 use rigwright_core::{Equilibrium, Model, Statics, Vec3};
 
 use super::RigApp;
+use super::background::Background;
 use super::palette as pal;
 use super::units::{Quantity, Units};
 
@@ -137,6 +138,9 @@ impl PluckSession {
 }
 
 /// Natural modes of the current equilibrium, and the one being animated.
+/// Modes being computed on another thread, keyed like [`ModesState`].
+pub type ModesJob = Background<(usize, usize), Result<Modes, String>>;
+
 pub struct ModesState {
     /// Which solve the modes belong to (model pointer and case).
     pub key: (usize, usize),
@@ -146,24 +150,48 @@ pub struct ModesState {
     pub clock: f64,
 }
 
-/// Computes the modes of the current answer if they are missing or stale.
+/// Above this many free DOFs the modes are computed on another thread.
+const MODES_IN_BACKGROUND_DOF: usize = 1000;
+
+/// Computes the modes of the current answer if they are missing or stale: at once for small
+/// rigs, on another thread for large ones (the window keeps running meanwhile).
 pub fn refresh_modes(app: &mut RigApp) {
     let Some(a) = app.answer() else {
         app.modes = None;
+        app.modes_job = None;
         return;
     };
     let key = (a.model as *const Model as usize, app.case);
     if app.modes.as_ref().is_some_and(|m| m.key == key) {
         return;
     }
-    let statics = Statics::new(a.model);
-    let result = modes(&statics, a.eq, 12).map_err(|e| e.to_string());
-    app.modes = Some(ModesState {
+    let done = |result| ModesState {
         key,
         result,
         animate: None,
         clock: 0.0,
-    });
+    };
+    if let Some(job) = app.modes_job.as_ref().filter(|j| j.key == key) {
+        if let Some(r) = job.poll() {
+            app.modes = Some(done(r.and_then(|r| r)));
+            app.modes_job = None;
+        }
+        return;
+    }
+    let statics = Statics::new(a.model);
+    if statics.dof_count() <= MODES_IN_BACKGROUND_DOF {
+        let result = modes(&statics, a.eq, 12).map_err(|e| e.to_string());
+        app.modes = Some(done(result));
+        return;
+    }
+    let (Some(model), eq) = (app.solved.as_ref().map(|s| s.model.clone()), a.eq.clone()) else {
+        return;
+    };
+    app.modes = None;
+    app.modes_job = Some(Background::spawn(key, move || {
+        let statics = Statics::new(&model);
+        modes(&statics, &eq, 12).map_err(|e| e.to_string())
+    }));
 }
 
 /// Positions to draw in place of the static answer, with member forces if known.
@@ -295,6 +323,14 @@ fn joules(e: f64) -> String {
 pub fn modes_ui(app: &mut RigApp, ui: &mut egui::Ui) {
     refresh_modes(app);
     let units: Units = app.settings.units;
+    if let Some(job) = &app.modes_job {
+        ui.label(format!(
+            "Computing the natural modes of this large rig… {:.1} s",
+            job.started.elapsed().as_secs_f64()
+        ));
+        ui.ctx().request_repaint_after(std::time::Duration::from_millis(100));
+        return;
+    }
     let Some(state) = app.modes.as_mut() else {
         ui.label("No stable equilibrium: natural frequencies exist only about a stable state.");
         return;

@@ -16,18 +16,21 @@ use rigwright_core::sizing::{
     Status, StrutSection, SweepResult, auto_size, check_project, design_spring, project_catalogue, sweep,
 };
 
+use super::background::Background;
 use super::palette as pal;
 use super::units::{Quantity, significant};
 use super::{Command, RigApp, Selection};
 
-/// Above this many nodes the checks run only when asked (they solve every case from rest).
-const AUTO_CHECK_NODES: usize = 1500;
+/// Above this many nodes the checks run on another thread (they solve every case from rest).
+const AUTO_CHECK_NODES: usize = 350;
 
 /// Sizing state kept between frames.
 #[derive(Default)]
 pub struct SizingState {
     /// The last check report and the document revision it belongs to.
     report: Option<(u64, Result<CheckReport, String>)>,
+    /// Checks of a large rig running on another thread, keyed by document revision.
+    job: Option<Background<u64, Result<CheckReport, String>>>,
     /// The spring designer, when open.
     pub designer: Option<Designer>,
     pub sweep: SweepPanel,
@@ -35,6 +38,18 @@ pub struct SizingState {
     part_filter: String,
     /// Auto-size chooses only among part ids containing this text.
     pub autosize_only: String,
+}
+
+impl SizingState {
+    /// The last check report, if it ran and succeeded.
+    pub fn report(&self) -> Option<&CheckReport> {
+        self.report.as_ref().and_then(|(_, r)| r.as_ref().ok())
+    }
+
+    /// True while checks run on another thread.
+    pub fn checking(&self) -> bool {
+        self.job.is_some()
+    }
 }
 
 /// The spring designer window.
@@ -107,12 +122,30 @@ pub fn checks_ui(app: &mut RigApp, ui: &mut egui::Ui) {
         return;
     }
     if stale {
-        if app.doc.project.nodes.len() <= AUTO_CHECK_NODES || ui.button("Run the checks").clicked() {
-            let result = check_project(&app.doc.project, &catalogue(&app.doc.project)).map_err(|e| e.to_string());
-            app.sizing.report = Some((revision, result));
+        let project = app.doc.project.clone();
+        let run = move || check_project(&project, &catalogue(&project)).map_err(|e| e.to_string());
+        if app.doc.project.nodes.len() <= AUTO_CHECK_NODES {
+            app.sizing.report = Some((revision, run()));
+            app.sizing.job = None;
         } else {
-            ui.label("Large rig: the checks solve every load case from rest, so they run when asked.");
-            return;
+            if app.sizing.job.as_ref().is_none_or(|j| j.key != revision) {
+                app.sizing.job = Some(Background::spawn(revision, run));
+            }
+            let job = app.sizing.job.as_ref().expect("just set");
+            match job.poll() {
+                Some(r) => {
+                    app.sizing.report = Some((revision, r.and_then(|r| r)));
+                    app.sizing.job = None;
+                }
+                None => {
+                    ui.label(format!(
+                        "Checking every member in every load case of this large rig… {:.1} s (the window stays usable)",
+                        job.started.elapsed().as_secs_f64()
+                    ));
+                    ui.ctx().request_repaint_after(std::time::Duration::from_millis(100));
+                    return;
+                }
+            }
         }
     }
     let Some((_, result)) = &app.sizing.report else { return };
