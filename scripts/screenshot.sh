@@ -13,7 +13,7 @@ display=:${SCREENSHOT_DISPLAY:-97}
 runtime=$(mktemp -d)
 chmod 700 "$runtime"
 # A fresh settings directory, so the shot does not depend on what was open last.
-export XDG_DATA_HOME="$runtime/data" XDG_CONFIG_HOME="$runtime/config" HOME="$runtime/home"
+export RIGWRIGHT_DATA_DIR="${RIGWRIGHT_DATA_DIR:-}" XDG_DATA_HOME="$runtime/data" XDG_CONFIG_HOME="$runtime/config" HOME="$runtime/home"
 mkdir -p "$HOME"
 Xvfb "$display" -screen 0 1280x800x24 -nolisten tcp >/dev/null 2>&1 &
 xpid=$!
