@@ -19,7 +19,7 @@ pub const CAUTIONS: &str = "Rigging and tensioned structures can fail suddenly a
 const MARGIN: f32 = 28.0;
 const TITLE_H: f32 = 66.0;
 const FOOTER_H: f32 = 34.0;
-const GAP: f32 = 10.0;
+const GAP: f32 = 8.0;
 
 /// Pages being filled top to bottom.
 struct Flow {
@@ -51,8 +51,9 @@ impl Flow {
     fn heading(&mut self, text: &str, keep: f32) {
         self.ensure(16.0 + keep);
         let (x, y, w) = (self.x, self.y, self.w);
+        let text = fonts::fit(&super::page::quotes(text), 8.5, Weight::Bold, w);
         let page = self.page();
-        page.text((x, y + 9.0), Style::new(8.5, Weight::Bold, Ink::Black), Align::Left, text);
+        page.text((x, y + 9.0), Style::new(8.5, Weight::Bold, Ink::Black), Align::Left, &text);
         page.line((x, y + 12.0), (x + w, y + 12.0), Pen::solid(0.4, Ink::Mid));
         self.y += 16.0;
     }
@@ -91,7 +92,7 @@ impl Flow {
 /// smaller when that keeps the sheet on one page.
 pub fn pages(sheet: &Sheet, paper: Paper) -> Vec<Page> {
     let mut best = None;
-    for fraction in [0.40, 0.34, 0.28] {
+    for fraction in [0.40, 0.32, 0.26, 0.20] {
         let pages = lay_out(sheet, paper, fraction);
         if pages.len() == 1 {
             return finish(pages, sheet, paper);
@@ -161,8 +162,11 @@ fn lay_out(sheet: &Sheet, paper: Paper, fraction: f32) -> Vec<Page> {
     }
     members_table(&mut flow, sheet, &fmt);
     nodes_table(&mut flow, sheet, &fmt);
-    modes_block(&mut flow, sheet);
-    stiffness_block(&mut flow, sheet, &fmt);
+    let half = (flow.w - 12.0) / 2.0;
+    match stiffness_block(sheet, &fmt, half) {
+        Some(k) => flow.pair(&modes_block(sheet, half), &k),
+        None => flow.block(&modes_block(sheet, half)),
+    }
     design_block(&mut flow, sheet);
     if !sheet.project.notes.trim().is_empty() {
         flow.heading("Notes", 10.0);
@@ -418,8 +422,64 @@ fn nodes_table(flow: &mut Flow, sheet: &Sheet, fmt: &Fmt) {
     flow.table(&format!("{title}: drawn position, displacement, reaction on the rig"), &table);
 }
 
-fn modes_block(flow: &mut Flow, sheet: &Sheet) {
-    let title = format!("Lowest natural frequencies: load case `{}`", sheet.case_name());
+/// A titled block: a table, statements, or both.
+struct Block {
+    title: String,
+    table: Option<Table>,
+    lines: Vec<String>,
+}
+
+impl Block {
+    /// Height on the page (pt), when it is not split.
+    fn height(&self, w: f32) -> f32 {
+        let table = self
+            .table
+            .as_ref()
+            .map(|t| t.head_height() + (0..t.rows.len()).map(|r| t.row_height(r)).sum::<f32>())
+            .unwrap_or(0.0);
+        let lines: usize = self.lines.iter().map(|l| fonts::wrap(l, 7.5, Weight::Regular, w).len()).sum();
+        16.0 + table + lines as f32 * 7.5 * 1.3 + GAP
+    }
+}
+
+impl Flow {
+    fn block(&mut self, b: &Block) {
+        match &b.table {
+            Some(t) => self.table(&b.title, t),
+            None => self.heading(&b.title, 10.0),
+        }
+        for l in &b.lines {
+            self.paragraph(l, 7.5, Weight::Regular, 0.0);
+        }
+        if b.table.is_none() {
+            self.y += GAP;
+        }
+    }
+
+    /// Two blocks side by side when both fit on this page, else one after the other.
+    fn pair(&mut self, a: &Block, b: &Block) {
+        let half = (self.w - 12.0) / 2.0;
+        let h = a.height(half).max(b.height(half));
+        if self.y + h > self.bottom {
+            self.block(a);
+            self.block(b);
+            return;
+        }
+        let (x, w, y) = (self.x, self.w, self.y);
+        self.w = half;
+        self.block(a);
+        let ya = self.y;
+        self.y = y;
+        self.x = x + half + 12.0;
+        self.block(b);
+        self.y = self.y.max(ya);
+        self.x = x;
+        self.w = w;
+    }
+}
+
+fn modes_block(sheet: &Sheet, width: f32) -> Block {
+    let title = format!("Natural frequencies, `{}`", sheet.case_name());
     match &sheet.modes {
         Ok(m) if !m.modes.is_empty() => {
             let axes: &[usize] = if sheet.model.planar { &[0, 1] } else { &[0, 1, 2] };
@@ -443,22 +503,31 @@ fn modes_block(flow: &mut Flow, sheet: &Sheet) {
                 Column::new("period\n[s]", Align::Right),
             ];
             for &a in axes {
-                columns.push(Column::new(&format!("effective mass {}\n[kg]", ["x", "y", "z"][a]), Align::Right));
+                columns.push(Column::new(&format!("eff. mass {}\n[kg]", ["x", "y", "z"][a]), Align::Right));
             }
-            let table = Table::new(columns, rows, flow.w * 0.6);
-            flow.table(&title, &table);
+            Block {
+                title,
+                table: Some(Table::new(columns, rows, width)),
+                lines: Vec::new(),
+            }
         }
-        Ok(_) => {
-            flow.heading(&title, 10.0);
-            flow.paragraph("No modes: nothing with mass can move.", 7.5, Weight::Regular, 0.0);
-            flow.y += GAP;
-        }
-        Err(e) => {
-            flow.heading(&title, 10.0);
-            flow.paragraph(&format!("None given: {e}."), 7.5, Weight::Regular, 0.0);
-            flow.y += GAP;
-        }
+        Ok(_) => Block {
+            title,
+            table: None,
+            lines: vec!["No modes: nothing with mass can move.".into()],
+        },
+        Err(e) => Block {
+            title,
+            table: None,
+            lines: vec![format!("None given: {e}.")],
+        },
     }
+}
+
+/// A direction cosine to three decimals, without a sign on zero.
+fn d3(v: f64) -> String {
+    let s = format!("{v:.3}");
+    if s == "-0.000" { "0.000".into() } else { s }
 }
 
 /// `dᵀ K d` over the free axes of a condensed stiffness.
@@ -472,13 +541,13 @@ fn along(k: &NodeStiffness, mat: &[Vec<f64>], d: &rigwright_core::Vec3) -> f64 {
     s
 }
 
-fn stiffness_block(flow: &mut Flow, sheet: &Sheet, fmt: &Fmt) {
+fn stiffness_block(sheet: &Sheet, fmt: &Fmt, width: f32) -> Option<Block> {
     if sheet.stiffness.is_empty() {
-        return;
+        return None;
     }
     let ku = fmt.stiffness_unit();
     let mut rows = Vec::new();
-    let mut problems = Vec::new();
+    let mut lines = Vec::new();
     for (id, k) in &sheet.stiffness {
         match k {
             Ok(k) => {
@@ -487,35 +556,33 @@ fn stiffness_block(flow: &mut Flow, sheet: &Sheet, fmt: &Fmt) {
                     rows.push(vec![
                         if n == 0 { Cell::bold(id.clone()) } else { Cell::text("") },
                         Cell::text(fmt.stiffness(p.value)),
-                        Cell::text(format!("({:.3}, {:.3}, {:.3})", d.x, d.y, d.z)),
+                        Cell::text(format!("({}, {}, {})", d3(d.x), d3(d.y), d3(d.z))),
                         Cell::text(fmt.stiffness(along(k, &k.elastic, &d))),
                         Cell::text(fmt.stiffness(along(k, &k.geometric, &d))),
                     ]);
                 }
             }
-            Err(e) => problems.push(format!("Node `{id}`: no stiffness: {e}.")),
+            Err(e) => lines.push(format!("Node `{id}`: no stiffness: {e}.")),
         }
     }
-    let title = format!("Tangent stiffness at marked nodes: load case `{}`", sheet.case_name());
-    if !rows.is_empty() {
-        let table = Table::new(
+    let table = (!rows.is_empty()).then(|| {
+        Table::new(
             vec![
                 Column::new("node", Align::Left),
-                Column::new(&format!("principal stiffness\n[{ku}]"), Align::Right),
+                Column::new(&format!("principal\n[{ku}]"), Align::Right),
                 Column::new("direction\n(x, y, z)", Align::Left),
-                Column::new(&format!("elastic part\n[{ku}]"), Align::Right),
-                Column::new(&format!("geometric part\n[{ku}]"), Align::Right),
+                Column::new(&format!("elastic\n[{ku}]"), Align::Right),
+                Column::new(&format!("geometric\n[{ku}]"), Align::Right),
             ],
             rows,
-            flow.w * 0.8,
-        );
-        flow.table(&title, &table);
-    } else {
-        flow.heading(&title, 10.0);
-    }
-    for p in problems {
-        flow.paragraph(&p, 7.5, Weight::Regular, 0.0);
-    }
+            width,
+        )
+    });
+    Some(Block {
+        title: format!("Tangent stiffness at marked nodes, `{}`", sheet.case_name()),
+        table,
+        lines,
+    })
 }
 
 fn design_block(flow: &mut Flow, sheet: &Sheet) {

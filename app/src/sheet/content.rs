@@ -293,7 +293,11 @@ fn warnings(report: &CheckReport, drawn: usize) -> Vec<String> {
             .filter(|m| m.status == status)
             .map(|m| format!("`{}`", m.id))
             .collect();
-        ids.join(", ")
+        match ids.len() {
+            n if n == report.members.len() && n > 3 => format!("all {n} members"),
+            n if n > 12 => format!("{} and {} more", ids[..10].join(", "), n - 10),
+            _ => ids.join(", "),
+        }
     };
     let near = with(Status::Near);
     if !near.is_empty() {

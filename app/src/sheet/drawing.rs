@@ -27,6 +27,8 @@ pub struct Area {
 const PT_PER_MM: f64 = 72.0 / 25.4;
 /// Room kept free around the rig for labels, arrows and the dimensions (pt).
 const PAD: f32 = 30.0;
+/// Room kept free above and below the rig (pt).
+const PAD_Y: f32 = 18.0;
 /// Length of a load arrow (pt).
 const ARROW: f32 = 26.0;
 
@@ -46,7 +48,7 @@ fn standard_scale(mm_per_m: f64) -> f64 {
     }
 }
 
-/// A round length for the scale bar, about a fifth of `span` (m).
+/// A round length for the scale bar, at most a fifth of `span` (m).
 fn bar_length(span: f64) -> f64 {
     let target = span / 5.0;
     let decade = 10f64.powf(target.log10().floor());
@@ -229,9 +231,9 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
     let caption_h = 24.0;
     let plot = Area {
         x: area.x + PAD + 34.0,
-        y: area.y + PAD,
+        y: area.y + PAD_Y,
         w: area.w - 2.0 * PAD - 34.0,
-        h: area.h - 2.0 * PAD - 16.0 - caption_h,
+        h: area.h - 2.0 * PAD_Y - 20.0 - caption_h,
     };
     let span = [(bhi[0] - blo[0]).max(extent * 0.05), (bhi[1] - blo[1]).max(extent * 0.05)];
     let pt_per_m_fit = (plot.w as f64 / span[0]).min(plot.h as f64 / span[1]);
@@ -263,14 +265,22 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
     }
     // Member ids at mid-length, on small rigs.
     if model.members.len() <= 24 {
-        for m in &model.members {
+        for (k, m) in model.members.iter().enumerate() {
             let (a, b) = (shown[m.ends[0]], shown[m.ends[1]]);
-            let e = unit(sub(b, a));
+            let d = sub(b, a);
+            if (d.0 * d.0 + d.1 * d.1).sqrt() < fonts::width(&m.id, 5.5, Weight::Regular) + 16.0 {
+                continue; // too short on paper to carry its id
+            }
+            let e = unit(d);
             let mut n = (-e.1, e.0);
-            if n.1 > 0.0 {
+            // Right of steep members, above flat ones.
+            let steep = e.1.abs() > e.0.abs();
+            if (steep && n.0 < 0.0) || (!steep && n.1 > 0.0) {
                 n = (-n.0, -n.1);
             }
-            let mid = at(((a.0 + b.0) / 2.0, (a.1 + b.1) / 2.0), n, 5.0);
+            // Alternate along the length so that labels of neighbouring members part.
+            let t = if k % 2 == 0 { 0.42 } else { 0.58 };
+            let mid = at((a.0 + (b.0 - a.0) * t, a.1 + (b.1 - a.1) * t), n, 5.0);
             let align = if n.0 < -0.3 {
                 Align::Right
             } else if n.0 > 0.3 {
@@ -290,6 +300,21 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         }
     }
     let label_small = model.nodes.len() > 30;
+    // Nodes that fall on one point of the drawing share one label.
+    let mut label: Vec<Option<String>> = model.nodes.iter().map(|n| Some(n.id.clone())).collect();
+    for i in 0..model.nodes.len() {
+        for j in 0..i {
+            let d = sub(shown[i], shown[j]);
+            if label[j].is_some() && d.0.abs() < 2.0 && d.1.abs() < 2.0 {
+                let id = label[i].take().unwrap_or_default();
+                if let Some(l) = label[j].as_mut() {
+                    l.push_str(" / ");
+                    l.push_str(&id);
+                }
+                break;
+            }
+        }
+    }
     for (i, node) in model.nodes.iter().enumerate() {
         let p = shown[i];
         let u = unit(away[i]);
@@ -316,12 +341,9 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         let q = at(p, dir, 5.0);
         let align = if dir.0 < 0.0 { Align::Right } else { Align::Left };
         let size = if label_small { 5.0 } else { 6.5 };
-        page.text(
-            (q.0, q.1 + 2.3 + dir.1 * 2.0),
-            Style::new(size, Weight::Bold, Ink::Black),
-            align,
-            &node.id,
-        );
+        if let Some(l) = &label[i] {
+            page.text((q.0, q.1 + 2.3 + dir.1 * 2.0), Style::new(size, Weight::Bold, Ink::Black), align, l);
+        }
     }
     // Point loads of the case, arrows ending on the node.
     let case = &model.cases[sheet.case];
@@ -412,7 +434,7 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
     }
     // Scale bar and the scale, bottom left; the legend bottom right.
     let base_y = area.y + area.h - caption_h - 4.0;
-    let bar = bar_length(span[0].max(span[1]));
+    let bar = bar_length(400.0 / s);
     let bw = (bar * s) as f32;
     let bx = area.x + 10.0;
     for k in 0..4 {

@@ -13,6 +13,8 @@ pub struct Fmt {
     pub units: Units,
     /// Forces in kN (or kip) rather than N (or lbf), chosen from the largest force.
     pub kilo: bool,
+    /// Forces below this (N) are round-off of the solver and print as 0.
+    pub noise: f64,
 }
 
 impl Fmt {
@@ -22,6 +24,7 @@ impl Fmt {
         Fmt {
             units,
             kilo: shown >= 10_000.0,
+            noise: 1e-9 * largest.abs(),
         }
     }
 
@@ -36,6 +39,9 @@ impl Fmt {
 
     /// A force (N) in the sheet's force unit, without the unit.
     pub fn force(&self, si: f64) -> String {
+        if si.abs() <= self.noise {
+            return "0".into();
+        }
         let v = self.units.to_display(Quantity::Force, si) / if self.kilo { 1000.0 } else { 1.0 };
         fixed4(v)
     }
@@ -67,10 +73,11 @@ impl Fmt {
 
     /// A displacement (m) in mm or in, without the unit.
     pub fn small(&self, si: f64) -> String {
-        match self.units {
+        let s = match self.units {
             Units::Si => format!("{:.2}", si * 1e3),
             Units::Us => format!("{:.3}", si / INCH),
-        }
+        };
+        unsigned_zero(s)
     }
 
     pub fn stiffness_unit(&self) -> &'static str {
@@ -115,6 +122,14 @@ impl Fmt {
     }
 }
 
+/// "-0.00" printed as "0.00".
+fn unsigned_zero(s: String) -> String {
+    match s.strip_prefix('-') {
+        Some(rest) if rest.chars().all(|c| c == '0' || c == '.') => rest.to_string(),
+        _ => s,
+    }
+}
+
 /// Four significant digits, but never in exponent form for ordinary forces.
 fn fixed4(v: f64) -> String {
     if v == 0.0 {
@@ -152,5 +167,7 @@ mod tests {
     fn displacements_print_in_millimetres_or_inches() {
         assert_eq!(Fmt::new(Units::Si, 1.0).small(0.012_345), "12.35");
         assert_eq!(Fmt::new(Units::Us, 1.0).small(0.0254), "1.000");
+        assert_eq!(Fmt::new(Units::Si, 1.0).small(-1e-6), "0.00");
+        assert_eq!(Fmt::new(Units::Si, 5000.0).force(-2.0e-9), "0");
     }
 }
