@@ -366,3 +366,22 @@ fn bad_input_exits_2_with_the_reason() {
         assert!(err.contains(says), "{args:?}: {err}");
     }
 }
+
+#[test]
+fn the_app_writes_the_sheet_and_csv_of_its_document_and_reports_a_failed_write() {
+    use rigwright::RigApp;
+    use rigwright::gui::Settings;
+    use rigwright::gui::export::{ExportKind, write};
+    let ctx = eframe::egui::Context::default();
+    let app = RigApp::with_settings(&ctx, Settings::default(), Some(data("sign-sized.rig.ron")));
+    let dir = out_dir();
+    let pdf = dir.join("app-sheet.pdf");
+    let said = write(&app, ExportKind::Sheet(Paper::Letter), &pdf).unwrap();
+    assert!(said.contains("PASSES"), "{said}");
+    assert!(std::fs::read(&pdf).unwrap().starts_with(b"%PDF-"));
+    let csv = dir.join("app-members.csv");
+    write(&app, ExportKind::Csv, &csv).unwrap();
+    assert!(dir.join("app-nodes.csv").exists());
+    let err = write(&app, ExportKind::Json, &dir.join("no-such-folder").join("r.json")).unwrap_err();
+    assert!(err.contains("could not write"), "{err}");
+}
