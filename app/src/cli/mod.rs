@@ -11,6 +11,7 @@ use rigwright_core::{Equilibrium, Model, Project, SolveError, Statics};
 
 mod dynamics;
 mod report;
+mod sheet_cmd;
 pub mod sizing;
 
 /// Exit code for bad input.
@@ -203,6 +204,47 @@ pub enum Command {
         #[arg(long)]
         filter: Option<String>,
     },
+    /// Write the Sheet: a printable PDF summary (title block, drawing, member checks across all
+    /// load cases, nodes, natural frequencies, warnings, cautions).
+    Sheet {
+        /// Project file (*.rig.ron).
+        file: PathBuf,
+        /// PDF file to write.
+        #[arg(short, long)]
+        output: PathBuf,
+        /// Load case drawn and tabulated (default: the governing case).
+        #[arg(long)]
+        case: Option<String>,
+        /// Paper size: a4 or letter.
+        #[arg(long, default_value = "a4")]
+        paper: String,
+        /// List the tangent stiffness at this node (repeat for more nodes).
+        #[arg(long)]
+        stiffness: Vec<String>,
+        #[command(flatten)]
+        info: sheet_cmd::InfoArgs,
+    },
+    /// Write result files: members and nodes as CSV, the full result as JSON (SI units).
+    Export {
+        /// Project file (*.rig.ron).
+        file: PathBuf,
+        /// Load case of the node table and of the members' force columns (default: the
+        /// governing case).
+        #[arg(long)]
+        case: Option<String>,
+        /// Members CSV to write (checks across all cases, force in the chosen case).
+        #[arg(long)]
+        csv_members: Option<PathBuf>,
+        /// Nodes CSV to write (positions, displacements, reactions in the chosen case).
+        #[arg(long)]
+        csv_nodes: Option<PathBuf>,
+        /// JSON file to write (`rigwright.result/1`: every case, every check); `-` prints it.
+        #[arg(long)]
+        json: Option<PathBuf>,
+        /// Also give the tangent stiffness at this node in the JSON (repeat for more).
+        #[arg(long)]
+        stiffness: Vec<String>,
+    },
 }
 
 /// Parses "DX,DY" or "DX,DY,DZ" (m).
@@ -375,6 +417,31 @@ pub fn run(command: Command) -> Result<(), Failure> {
             print!("{}", sizing::parts_command(file.as_deref(), &catalogue, filter.as_deref())?);
             Ok(())
         }
+        Command::Sheet {
+            file,
+            output,
+            case,
+            paper,
+            stiffness,
+            info,
+        } => sheet_cmd::sheet(&file, &output, case, &paper, stiffness, info),
+        Command::Export {
+            file,
+            case,
+            csv_members,
+            csv_nodes,
+            json,
+            stiffness,
+        } => sheet_cmd::export(
+            &file,
+            case,
+            stiffness,
+            sheet_cmd::Outputs {
+                members: csv_members,
+                nodes: csv_nodes,
+                json,
+            },
+        ),
         Command::Modes { file, case, count, json } => {
             let (model, case) = load_case(&file, case.as_deref())?;
             print_output(&dynamics::modes_command(&model, case, count, json)?, json);

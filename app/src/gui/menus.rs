@@ -2,11 +2,13 @@
 
 use eframe::egui::{self, RichText};
 
+use super::export::ExportKind;
 use super::palette as pal;
 use super::samples::SAMPLES;
 use super::units::Units;
 use super::view::Plane;
 use super::{Command, RigApp, Tool};
+use crate::sheet::Paper;
 
 pub fn menu_bar(app: &mut RigApp, ui: &mut egui::Ui) {
     egui::MenuBar::new().ui(ui, |ui| {
@@ -37,6 +39,32 @@ pub fn menu_bar(app: &mut RigApp, ui: &mut egui::Ui) {
                 .clicked()
             {
                 app.queue(Command::SaveAsDialog);
+            }
+            ui.separator();
+            ui.menu_button("Print Sheet…", |ui| {
+                for paper in [Paper::A4, Paper::Letter] {
+                    if ui
+                        .button(format!("{} (PDF)…", paper.name()))
+                        .on_hover_text("Write the printable summary of the current load case as a PDF")
+                        .clicked()
+                    {
+                        app.queue(Command::Export(ExportKind::Sheet(paper)));
+                    }
+                }
+            });
+            if ui
+                .button("Export CSV…")
+                .on_hover_text("Members and nodes tables, SI units (nodes for the current load case)")
+                .clicked()
+            {
+                app.queue(Command::Export(ExportKind::Csv));
+            }
+            if ui
+                .button("Export JSON…")
+                .on_hover_text("The full result of every load case and every check, SI units")
+                .clicked()
+            {
+                app.queue(Command::Export(ExportKind::Json));
             }
         });
         ui.menu_button("Edit", |ui| {

@@ -7,6 +7,7 @@
 mod about;
 mod background;
 mod document;
+pub mod export;
 mod menus;
 mod palette;
 mod pluck;
@@ -202,6 +203,8 @@ pub enum Command {
     Pluck,
     /// Close the window (asks first when there are unsaved changes).
     Close,
+    /// Write the Sheet, CSV or JSON of the open document (asks where).
+    Export(export::ExportKind),
 }
 
 /// A Pull in progress (or the last one, kept for its plot).
@@ -551,6 +554,7 @@ impl RigApp {
             Command::KeepEditing => self.pending_discard = None,
             Command::Close => self.close_now = true,
             Command::Pluck => self.start_pluck(),
+            Command::Export(kind) => export::run(self, kind),
         }
     }
 

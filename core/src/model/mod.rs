@@ -7,12 +7,14 @@
 
 mod project;
 mod save;
+mod title_block;
 mod validated;
 
 pub use project::{
     CaseDoc, FILE_EXTENSION, FORMAT_VERSION, LoadDoc, MemberDoc, MemberDocKind, NodeDoc, Project, ProjectError, Rest, UnitSystem,
 };
 pub use save::{BACKUP_SUFFIX, backup_path, save_atomic};
+pub use title_block::SheetInfo;
 pub use validated::{LoadCase, Member, Model, Node, Problem, Support};
 
 /// 3-vector of f64 (m, N or m/s² depending on use).

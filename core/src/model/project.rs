@@ -7,6 +7,7 @@ use serde::{Deserialize, Serialize};
 use std::fmt;
 use std::path::Path;
 
+use super::title_block::SheetInfo;
 use super::validated::{Model, Problem};
 use crate::sizing::{MemberDesign, SizingDoc};
 
@@ -53,6 +54,9 @@ pub struct Project {
     /// Design factors, limits and the project's own catalogue entries.
     #[serde(default, skip_serializing_if = "SizingDoc::is_default")]
     pub sizing: SizingDoc,
+    /// Title-block fields of the Sheet (project, client, prepared by, …).
+    #[serde(default, skip_serializing_if = "SheetInfo::is_empty")]
+    pub sheet: SheetInfo,
 }
 
 fn default_gravity() -> (f64, f64, f64) {
@@ -197,6 +201,7 @@ impl Project {
             members: Vec::new(),
             cases: Vec::new(),
             sizing: SizingDoc::default(),
+            sheet: SheetInfo::default(),
         }
     }
 

@@ -1,0 +1,145 @@
+//! The `sheet` and `export` commands.
+
+use std::path::{Path, PathBuf};
+
+use clap::Args;
+use rigwright_core::Project;
+use rigwright_core::model::SheetInfo;
+
+use super::{EXIT_NO_EQUILIBRIUM, Failure};
+use crate::sheet::{Paper, Sheet, SheetOptions, export};
+
+/// Title-block fields given on the command line; each replaces the project's.
+#[derive(Args, Debug, Default)]
+pub struct InfoArgs {
+    /// Title block: project name or number.
+    #[arg(long)]
+    pub project: Option<String>,
+    /// Title block: location.
+    #[arg(long)]
+    pub location: Option<String>,
+    /// Title block: client.
+    #[arg(long)]
+    pub client: Option<String>,
+    /// Title block: prepared by.
+    #[arg(long)]
+    pub prepared_by: Option<String>,
+    /// Title block: checked by.
+    #[arg(long)]
+    pub checked_by: Option<String>,
+    /// Title block: date (default: the project's, else today).
+    #[arg(long)]
+    pub date: Option<String>,
+    /// Title block: revision.
+    #[arg(long)]
+    pub revision: Option<String>,
+}
+
+impl InfoArgs {
+    fn into_info(self) -> SheetInfo {
+        SheetInfo {
+            project: self.project.unwrap_or_default(),
+            location: self.location.unwrap_or_default(),
+            client: self.client.unwrap_or_default(),
+            prepared_by: self.prepared_by.unwrap_or_default(),
+            checked_by: self.checked_by.unwrap_or_default(),
+            date: self.date.unwrap_or_default(),
+            revision: self.revision.unwrap_or_default(),
+        }
+    }
+}
+
+/// Reads the project and builds the sheet's content.
+fn build(file: &Path, case: Option<String>, stiffness: Vec<String>, info: SheetInfo) -> Result<Sheet, Failure> {
+    let bytes = std::fs::read(file).map_err(|e| Failure::input(format!("{}: {e}", file.display())))?;
+    let project = Project::load(file).map_err(|e| Failure::input(format!("{}: {e}", file.display())))?;
+    let options = SheetOptions {
+        case,
+        stiffness,
+        info,
+        file_name: file.file_name().map(|n| n.to_string_lossy().into_owned()),
+        unsaved: false,
+    };
+    Sheet::build(&project, &bytes, &options).map_err(|e| Failure::input(format!("{}: {e}", file.display())))
+}
+
+fn write(path: &Path, bytes: &[u8]) -> Result<(), Failure> {
+    std::fs::write(path, bytes).map_err(|e| Failure::input(format!("could not write {}: {e}", path.display())))
+}
+
+/// Exit 3 when a load case has no equilibrium (the files are written all the same and say so).
+fn unsolved(sheet: &Sheet, what: &str) -> Result<(), Failure> {
+    let missing: Vec<String> = sheet
+        .report
+        .cases
+        .iter()
+        .filter_map(|c| Some(format!("`{}`: {}", c.name, c.error.as_ref()?)))
+        .collect();
+    if missing.is_empty() {
+        Ok(())
+    } else {
+        Err(Failure {
+            code: EXIT_NO_EQUILIBRIUM,
+            message: format!("{what}; no equilibrium in load case {}", missing.join("; ")),
+        })
+    }
+}
+
+/// `rigwright sheet`.
+pub fn sheet(file: &Path, output: &Path, case: Option<String>, paper: &str, stiffness: Vec<String>, info: InfoArgs) -> Result<(), Failure> {
+    let paper = Paper::parse(paper).ok_or_else(|| Failure::input(format!("paper `{paper}`: use a4 or letter")))?;
+    let sheet = build(file, case, stiffness, info.into_info())?;
+    let pdf = sheet.to_pdf(paper).map_err(Failure::input)?;
+    write(output, &pdf)?;
+    let pages = sheet.pages(paper).len();
+    eprintln!("{}: {} page(s), {}", output.display(), pages, sheet.verdict());
+    unsolved(&sheet, &format!("the sheet {} was written", output.display()))
+}
+
+/// Where `rigwright export` writes.
+pub struct Outputs {
+    pub members: Option<PathBuf>,
+    pub nodes: Option<PathBuf>,
+    pub json: Option<PathBuf>,
+}
+
+/// `rigwright export`.
+pub fn export(file: &Path, case: Option<String>, stiffness: Vec<String>, out: Outputs) -> Result<(), Failure> {
+    if out.members.is_none() && out.nodes.is_none() && out.json.is_none() {
+        return Err(Failure::input(
+            "nothing to export: give --csv-members FILE, --csv-nodes FILE or --json FILE (or --json - to print)",
+        ));
+    }
+    let sheet = build(file, case, stiffness, SheetInfo::default())?;
+    if let Some(path) = &out.members {
+        write(path, export::members_csv(&sheet).as_bytes())?;
+    }
+    let mut skipped = None;
+    if let Some(path) = &out.nodes {
+        match export::nodes_csv(&sheet) {
+            Some(csv) => write(path, csv.as_bytes())?,
+            None => {
+                skipped = Some(format!(
+                    "{} not written: load case `{}` has no equilibrium, so there are no node results",
+                    path.display(),
+                    sheet.case_name()
+                ))
+            }
+        }
+    }
+    if let Some(path) = &out.json {
+        let text = export::result_json(&sheet);
+        if path.as_os_str() == "-" {
+            println!("{text}");
+        } else {
+            write(path, format!("{text}\n").as_bytes())?;
+        }
+    }
+    match skipped {
+        Some(message) => Err(Failure {
+            code: EXIT_NO_EQUILIBRIUM,
+            message,
+        }),
+        None => unsolved(&sheet, "the result files were written"),
+    }
+}

@@ -1,0 +1,523 @@
+//! The scaled drawing of the rig: drawn geometry light and dashed, the deformed geometry of
+//! the sheet's load case solid, node ids, supports, loads, overall dimensions, a scale bar and
+//! the axes.
+//!
+//! The drawing is to a standard scale (1:1, 1:2, 1:2.5, 1:5 × 10ⁿ) at 100 % print size.
+//! Displacements may be magnified by a stated factor so that a stiff rig's deformation can be
+//! seen; dimensions always refer to the drawn geometry.
+
+use rigwright_core::{MemberKind, Vec3};
+
+use super::content::Sheet;
+use super::fonts::{self, Weight};
+use super::format::Fmt;
+use super::page::{Align, Ink, Page, Paper, Pen, Style};
+use crate::gui::{Plane, RigView};
+
+/// A rectangle on the page (pt, top left).
+#[derive(Debug, Clone, Copy)]
+pub struct Area {
+    pub x: f32,
+    pub y: f32,
+    pub w: f32,
+    pub h: f32,
+}
+
+/// Points per millimetre of paper.
+const PT_PER_MM: f64 = 72.0 / 25.4;
+/// Room kept free around the rig for labels, arrows and the dimensions (pt).
+const PAD: f32 = 30.0;
+/// Room kept free above and below the rig (pt).
+const PAD_Y: f32 = 18.0;
+/// Length of a load arrow (pt).
+const ARROW: f32 = 26.0;
+
+/// The smallest standard scale 1:N that fits `needed` (paper mm per model m needed ≥ …).
+fn standard_scale(mm_per_m: f64) -> f64 {
+    // 1:N puts 1000/N mm of paper on a metre.
+    let n_min = 1000.0 / mm_per_m;
+    let mut decade = 10f64.powf(n_min.log10().floor() - 1.0);
+    loop {
+        for m in [1.0, 2.0, 2.5, 5.0] {
+            let n = m * decade;
+            if n >= n_min * (1.0 - 1e-9) {
+                return n;
+            }
+        }
+        decade *= 10.0;
+    }
+}
+
+/// A round length for the scale bar, at most a fifth of `span` (m).
+fn bar_length(span: f64) -> f64 {
+    let target = span / 5.0;
+    let decade = 10f64.powf(target.log10().floor());
+    [1.0, 2.0, 5.0, 10.0]
+        .into_iter()
+        .map(|m| m * decade)
+        .rfind(|l| *l <= target * 1.01)
+        .unwrap_or(decade)
+}
+
+/// The magnification of displacements: the largest of 1, 2, 5, 10, … that keeps the largest
+/// displacement within 6 % of the rig's size.
+fn magnification(largest: f64, extent: f64) -> f64 {
+    if largest <= 0.0 || largest >= 0.06 * extent {
+        return 1.0;
+    }
+    let mut best = 1.0;
+    let mut decade = 1.0;
+    while decade < 1e6 {
+        for m in [1.0, 2.0, 5.0] {
+            if m * decade * largest <= 0.06 * extent {
+                best = m * decade;
+            }
+        }
+        decade *= 10.0;
+    }
+    best
+}
+
+fn sub(a: (f32, f32), b: (f32, f32)) -> (f32, f32) {
+    (a.0 - b.0, a.1 - b.1)
+}
+
+fn unit(v: (f32, f32)) -> (f32, f32) {
+    let n = (v.0 * v.0 + v.1 * v.1).sqrt();
+    if n < 1e-6 { (0.0, -1.0) } else { (v.0 / n, v.1 / n) }
+}
+
+fn at(p: (f32, f32), d: (f32, f32), t: f32) -> (f32, f32) {
+    (p.0 + d.0 * t, p.1 + d.1 * t)
+}
+
+/// Arrow head at `tip` pointing along `d` (unit).
+fn arrow_head(page: &mut Page, tip: (f32, f32), d: (f32, f32), size: f32, ink: Ink) {
+    let n = (-d.1, d.0);
+    let base = at(tip, d, -size);
+    page.path(vec![tip, at(base, n, size * 0.4), at(base, n, -size * 0.4)], true, None, Some(ink));
+}
+
+/// A zigzag between `a` and `b` for a spring (straight leads at both ends).
+fn zigzag(a: (f32, f32), b: (f32, f32)) -> Vec<(f32, f32)> {
+    let d = sub(b, a);
+    let len = (d.0 * d.0 + d.1 * d.1).sqrt();
+    if len < 8.0 {
+        return vec![a, b];
+    }
+    let e = (d.0 / len, d.1 / len);
+    let n = (-e.1, e.0);
+    let lead = (len * 0.2).min(12.0);
+    let body = len - 2.0 * lead;
+    let teeth = ((body / 4.0).floor() as usize).clamp(4, 14);
+    let amp = 3.0;
+    let mut pts = vec![a, at(a, e, lead)];
+    for k in 0..teeth {
+        let t = lead + body * (k as f32 + 0.5) / teeth as f32;
+        let side = if k % 2 == 0 { amp } else { -amp };
+        pts.push(at(at(a, e, t), n, side));
+    }
+    pts.push(at(a, e, len - lead));
+    pts.push(b);
+    pts
+}
+
+/// Support symbol at `p`: a triangle with its apex on the node, set on the side `u` away from
+/// the members; filled with a hatched ground line for an anchor, hollow on rollers for a
+/// guided support.
+fn support(page: &mut Page, p: (f32, f32), u: (f32, f32), anchor: bool) {
+    let n = (-u.1, u.0);
+    let base = at(p, u, 9.0);
+    let tri = vec![p, at(base, n, 5.5), at(base, n, -5.5)];
+    if anchor {
+        page.path(tri, true, Some(Pen::solid(0.6, Ink::Black)), Some(Ink::Mid));
+        let g = at(base, u, 0.5);
+        page.line(at(g, n, -8.0), at(g, n, 8.0), Pen::solid(0.8, Ink::Black));
+        for k in 0..5 {
+            let s = -7.0 + 3.5 * k as f32;
+            let from = at(g, n, s);
+            page.line(from, at(at(from, u, 3.5), n, -3.0), Pen::solid(0.4, Ink::Black));
+        }
+    } else {
+        page.path(tri, true, Some(Pen::solid(0.6, Ink::Black)), Some(Ink::White));
+        for s in [-3.0, 3.0] {
+            page.circle(at(at(base, u, 1.6), n, s), 1.5, Some(Pen::solid(0.5, Ink::Black)), Some(Ink::White));
+        }
+        let g = at(base, u, 3.4);
+        page.line(at(g, n, -8.0), at(g, n, 8.0), Pen::solid(0.8, Ink::Black));
+    }
+}
+
+/// A dimension line from `a` to `b` with slashed ticks and `label` beside it; `offset` is the
+/// side the text goes (unit).
+fn dimension(page: &mut Page, a: (f32, f32), b: (f32, f32), label: &str, vertical: bool) {
+    let pen = Pen::solid(0.4, Ink::Mid);
+    page.line(a, b, pen.clone());
+    for p in [a, b] {
+        page.line((p.0 - 2.5, p.1 + 2.5), (p.0 + 2.5, p.1 - 2.5), Pen::solid(0.7, Ink::Dark));
+    }
+    let mid = ((a.0 + b.0) / 2.0, (a.1 + b.1) / 2.0);
+    if vertical {
+        page.text(
+            (mid.0 - 4.0, mid.1 + 2.5),
+            Style::new(6.5, Weight::Regular, Ink::Dark),
+            Align::Right,
+            label,
+        );
+    } else {
+        page.text(
+            (mid.0, mid.1 + 9.0),
+            Style::new(6.5, Weight::Regular, Ink::Dark),
+            Align::Centre,
+            label,
+        );
+    }
+}
+
+/// Draws the rig into `area`, with its caption at the bottom.
+pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper) {
+    let model = &sheet.model;
+    let mut view = RigView::default();
+    view.choose_plane(&sheet.project);
+    let plane = view.plane;
+    let uv = |p: &Vec3| plane.uv(p);
+    let eq = sheet.equilibrium();
+    // Bounds of the drawn geometry, then of everything drawn.
+    let drawn: Vec<[f64; 2]> = model.nodes.iter().map(|n| uv(&n.position)).collect();
+    let mut lo = [f64::INFINITY; 2];
+    let mut hi = [f64::NEG_INFINITY; 2];
+    for p in &drawn {
+        for k in 0..2 {
+            lo[k] = lo[k].min(p[k]);
+            hi[k] = hi[k].max(p[k]);
+        }
+    }
+    if drawn.is_empty() {
+        page.text(
+            (area.x, area.y + 12.0),
+            Style::new(8.0, Weight::Regular, Ink::Black),
+            Align::Left,
+            "The rig has no nodes.",
+        );
+        return;
+    }
+    let dims = [hi[0] - lo[0], hi[1] - lo[1]];
+    let extent = model.extent();
+    let (largest, at_node) = eq
+        .map(|eq| {
+            eq.nodes
+                .iter()
+                .map(|n| (n.displacement.norm(), n.id.as_str()))
+                .fold((0.0, ""), |b, x| if x.0 > b.0 { x } else { b })
+        })
+        .unwrap_or((0.0, ""));
+    let mag = magnification(largest, extent);
+    let deformed: Option<Vec<[f64; 2]>> = eq.map(|eq| {
+        model
+            .nodes
+            .iter()
+            .zip(&eq.nodes)
+            .map(|(n, r)| uv(&(n.position + r.displacement * mag)))
+            .collect()
+    });
+    let (mut blo, mut bhi) = (lo, hi);
+    for p in deformed.iter().flatten() {
+        for k in 0..2 {
+            blo[k] = blo[k].min(p[k]);
+            bhi[k] = bhi[k].max(p[k]);
+        }
+    }
+    // Room: PAD all round, plus the dimension lines (left, bottom) and the caption strip.
+    let caption_h = 24.0;
+    let plot = Area {
+        x: area.x + PAD + 34.0,
+        y: area.y + PAD_Y,
+        w: area.w - 2.0 * PAD - 34.0,
+        h: area.h - 2.0 * PAD_Y - 20.0 - caption_h,
+    };
+    let span = [(bhi[0] - blo[0]).max(extent * 0.05), (bhi[1] - blo[1]).max(extent * 0.05)];
+    let pt_per_m_fit = (plot.w as f64 / span[0]).min(plot.h as f64 / span[1]);
+    let ratio = standard_scale(pt_per_m_fit / PT_PER_MM);
+    let s = 1000.0 / ratio * PT_PER_MM; // pt per model metre
+    let cx = plot.x as f64 + plot.w as f64 / 2.0 - s * (blo[0] + bhi[0]) / 2.0;
+    let cy = plot.y as f64 + plot.h as f64 / 2.0 + s * (blo[1] + bhi[1]) / 2.0;
+    let to_page = |p: [f64; 2]| ((cx + s * p[0]) as f32, (cy - s * p[1]) as f32);
+    let dp: Vec<(f32, f32)> = drawn.iter().map(|p| to_page(*p)).collect();
+    let fp: Option<Vec<(f32, f32)>> = deformed.as_ref().map(|d| d.iter().map(|p| to_page(*p)).collect());
+    page.rect(area.x, area.y, area.w, area.h, Some(Pen::solid(0.5, Ink::Mid)), None);
+
+    // Drawn geometry, light and dashed.
+    for m in &model.members {
+        page.line(dp[m.ends[0]], dp[m.ends[1]], Pen::dashed(0.6, Ink::Light, 3.0, 2.0));
+    }
+    // Deformed geometry, solid: cables thin, struts thick, springs as zigzags, slack dashed.
+    let shown = fp.as_ref().unwrap_or(&dp);
+    if let (Some(fp), Some(eq)) = (&fp, eq) {
+        for (m, r) in model.members.iter().zip(&eq.members) {
+            let (a, b) = (fp[m.ends[0]], fp[m.ends[1]]);
+            match m.kind {
+                MemberKind::Cable { .. } if r.slack => page.line(a, b, Pen::dashed(0.9, Ink::Black, 2.0, 1.6)),
+                MemberKind::Cable { .. } => page.line(a, b, Pen::solid(0.9, Ink::Black)),
+                MemberKind::Strut { .. } => page.line(a, b, Pen::solid(2.2, Ink::Dark)),
+                MemberKind::Spring { .. } => page.path(zigzag(a, b), false, Some(Pen::solid(0.8, Ink::Black)), None),
+            }
+        }
+    }
+    // Member ids at mid-length, on small rigs.
+    if model.members.len() <= 24 {
+        for (k, m) in model.members.iter().enumerate() {
+            let (a, b) = (shown[m.ends[0]], shown[m.ends[1]]);
+            let d = sub(b, a);
+            if (d.0 * d.0 + d.1 * d.1).sqrt() < fonts::width(&m.id, 5.5, Weight::Regular) + 16.0 {
+                continue; // too short on paper to carry its id
+            }
+            let e = unit(d);
+            let mut n = (-e.1, e.0);
+            // Right of steep members, above flat ones.
+            let steep = e.1.abs() > e.0.abs();
+            if (steep && n.0 < 0.0) || (!steep && n.1 > 0.0) {
+                n = (-n.0, -n.1);
+            }
+            // Alternate along the length so that labels of neighbouring members part.
+            let t = if k % 2 == 0 { 0.42 } else { 0.58 };
+            let mid = at((a.0 + (b.0 - a.0) * t, a.1 + (b.1 - a.1) * t), n, 5.0);
+            let align = if n.0 < -0.3 {
+                Align::Right
+            } else if n.0 > 0.3 {
+                Align::Left
+            } else {
+                Align::Centre
+            };
+            page.text((mid.0, mid.1 + 2.0), Style::new(5.5, Weight::Regular, Ink::Mid), align, &m.id);
+        }
+    }
+    // Nodes, supports and node ids.
+    let mut away = vec![(0.0f32, 0.0f32); model.nodes.len()];
+    for m in &model.members {
+        for (i, j) in [(m.ends[0], m.ends[1]), (m.ends[1], m.ends[0])] {
+            let d = unit(sub(shown[j], shown[i]));
+            away[i] = (away[i].0 - d.0, away[i].1 - d.1);
+        }
+    }
+    let label_small = model.nodes.len() > 30;
+    // Nodes that fall on one point of the drawing share one label.
+    let mut label: Vec<Option<String>> = model.nodes.iter().map(|n| Some(n.id.clone())).collect();
+    for i in 0..model.nodes.len() {
+        for j in 0..i {
+            let d = sub(shown[i], shown[j]);
+            if label[j].is_some() && d.0.abs() < 2.0 && d.1.abs() < 2.0 {
+                let id = label[i].take().unwrap_or_default();
+                if let Some(l) = label[j].as_mut() {
+                    l.push_str(" / ");
+                    l.push_str(&id);
+                }
+                break;
+            }
+        }
+    }
+    for (i, node) in model.nodes.iter().enumerate() {
+        let p = shown[i];
+        let u = unit(away[i]);
+        let supported = model.has_reaction(i);
+        if supported {
+            support(
+                page,
+                p,
+                u,
+                node.support.is_anchor() || (model.planar && node.support.fixed[0] && node.support.fixed[1]),
+            );
+        }
+        if node.mass > 0.0 {
+            page.circle(p, 2.4, None, Some(Ink::Black));
+        } else {
+            page.circle(p, 1.5, Some(Pen::solid(0.6, Ink::Black)), Some(Ink::White));
+        }
+        let dir = if supported { (-u.1, u.0) } else { u };
+        let dir = if dir.0.abs() < 0.2 && dir.1.abs() > 0.9 {
+            (0.7, dir.1.signum() * 0.7)
+        } else {
+            dir
+        };
+        let q = at(p, dir, 5.0);
+        let align = if dir.0 < 0.0 { Align::Right } else { Align::Left };
+        let size = if label_small { 5.0 } else { 6.5 };
+        if let Some(l) = &label[i] {
+            page.text((q.0, q.1 + 2.3 + dir.1 * 2.0), Style::new(size, Weight::Bold, Ink::Black), align, l);
+        }
+    }
+    // Point loads of the case, arrows ending on the node.
+    let case = &model.cases[sheet.case];
+    for (node, f) in &case.loads {
+        let p = shown[*node];
+        let fuv = uv(f);
+        let len = (fuv[0] * fuv[0] + fuv[1] * fuv[1]).sqrt();
+        let label = if len < 1e-9 * f.norm().max(1.0) {
+            format!("{} out of plane", fmt.force_u(f.norm()))
+        } else {
+            fmt.force_u(f.norm())
+        };
+        let d = if len > 0.0 {
+            (fuv[0] as f32 / len as f32, -fuv[1] as f32 / len as f32)
+        } else {
+            (0.0, 1.0)
+        };
+        let tail = at(p, d, -ARROW);
+        page.line(tail, at(p, d, -3.0), Pen::solid(1.0, Ink::Black));
+        arrow_head(page, at(p, d, -2.5), d, 5.0, Ink::Black);
+        let align = if d.0 > 0.3 {
+            Align::Right
+        } else if d.0 < -0.3 {
+            Align::Left
+        } else {
+            Align::Centre
+        };
+        let ty = if d.1 > 0.3 { tail.1 - 3.0 } else { tail.1 + 8.0 };
+        page.text((tail.0, ty), Style::new(6.5, Weight::Bold, Ink::Black), align, &label);
+    }
+    // Overall dimensions of the drawn geometry.
+    let left = (cx + s * lo[0]) as f32;
+    let right = (cx + s * hi[0]) as f32;
+    let top = (cy - s * hi[1]) as f32;
+    let bottom = (cy - s * lo[1]) as f32;
+    let names = |k: usize| -> &'static str {
+        match (plane, k) {
+            (Plane::Elevation, 0) | (Plane::Plan, 0) => "x",
+            (Plane::Side, 0) => "z",
+            (Plane::Plan, _) => "z",
+            _ => "y",
+        }
+    };
+    let below = (cy - s * blo[1]) as f32 + 14.0;
+    if dims[0] > 1e-9 {
+        page.line((left, bottom + 3.0), (left, below + 3.0), Pen::solid(0.3, Ink::Light));
+        page.line((right, bottom + 3.0), (right, below + 3.0), Pen::solid(0.3, Ink::Light));
+        dimension(
+            page,
+            (left, below),
+            (right, below),
+            &format!("{} ({})", fmt.length_u(dims[0]), names(0)),
+            false,
+        );
+    }
+    let beside = (cx + s * blo[0]) as f32 - 16.0;
+    if dims[1] > 1e-9 {
+        page.line((left - 3.0, top), (beside - 3.0, top), Pen::solid(0.3, Ink::Light));
+        page.line((left - 3.0, bottom), (beside - 3.0, bottom), Pen::solid(0.3, Ink::Light));
+        dimension(
+            page,
+            (beside, top),
+            (beside, bottom),
+            &format!("{} ({})", fmt.length_u(dims[1]), names(1)),
+            true,
+        );
+    }
+    // Axes, top right.
+    let origin = (area.x + area.w - 30.0, area.y + 26.0);
+    for axis in 0..3 {
+        let mut e = Vec3::zeros();
+        e[axis] = 1.0;
+        let d = uv(&e);
+        if d[0].abs() + d[1].abs() < 0.5 {
+            continue;
+        }
+        let dir = (d[0] as f32, -d[1] as f32);
+        let tip = at(origin, dir, 16.0);
+        page.line(origin, at(origin, dir, 13.0), Pen::solid(0.6, Ink::Black));
+        arrow_head(page, tip, dir, 4.0, Ink::Black);
+        let l = at(tip, dir, 5.0);
+        page.text(
+            (l.0, l.1 + 2.5),
+            Style::new(7.0, Weight::Bold, Ink::Black),
+            Align::Centre,
+            ["x", "y", "z"][axis],
+        );
+    }
+    // Scale bar and the scale, bottom left; the legend bottom right.
+    let base_y = area.y + area.h - caption_h - 4.0;
+    let bar = bar_length(400.0 / s);
+    let bw = (bar * s) as f32;
+    let bx = area.x + 10.0;
+    for k in 0..4 {
+        let x0 = bx + bw * k as f32 / 4.0;
+        let fill = if k % 2 == 0 { Ink::Black } else { Ink::White };
+        page.rect(x0, base_y - 4.0, bw / 4.0, 4.0, Some(Pen::solid(0.5, Ink::Black)), Some(fill));
+    }
+    page.text((bx, base_y - 6.0), Style::new(6.0, Weight::Regular, Ink::Dark), Align::Centre, "0");
+    page.text(
+        (bx + bw, base_y - 6.0),
+        Style::new(6.0, Weight::Regular, Ink::Dark),
+        Align::Centre,
+        &fmt.length_u(bar),
+    );
+    let ratio_text = if ratio >= 1.0 {
+        format!("1:{}", fonts_free_number(ratio))
+    } else {
+        format!("{}:1", fonts_free_number(1.0 / ratio))
+    };
+    page.text(
+        (bx + bw + 8.0, base_y),
+        Style::new(6.5, Weight::Regular, Ink::Dark),
+        Align::Left,
+        &format!("scale {ratio_text} on {} at 100 %", paper.name()),
+    );
+    // Caption: what is drawn.
+    let view_name = match plane {
+        Plane::Elevation => "elevation, x to the right, y up",
+        Plane::Side => "side view, z to the right, y up",
+        Plane::Plan => "plan, x to the right, z down",
+    };
+    let line1 = format!(
+        "Rig, {view_name}. Dashed grey: geometry as drawn. Solid: equilibrium of load case `{}`.",
+        case.name
+    );
+    let line2 = match eq {
+        Some(_) if mag > 1.0 => format!(
+            "Displacements drawn ×{mag} (largest {} {} at `{at_node}`). Cable thin, strut thick, spring zigzag, slack cable dashed; filled dot: node with mass.",
+            fmt.small(largest),
+            fmt.small_unit()
+        ),
+        Some(_) => format!(
+            "Displacements to scale (largest {} {} at `{at_node}`). Cable thin, strut thick, spring zigzag, slack cable dashed; filled dot: node with mass.",
+            fmt.small(largest),
+            fmt.small_unit()
+        ),
+        None => "NO EQUILIBRIUM in this load case: only the geometry as drawn is shown; nothing here is a result.".to_string(),
+    };
+    let cy0 = area.y + area.h - caption_h + 9.0;
+    for (k, l) in [line1, line2].iter().enumerate() {
+        let l = fonts::fit(l, 6.5, Weight::Regular, area.w - 16.0);
+        let weight = if eq.is_none() && k == 1 { Weight::Bold } else { Weight::Regular };
+        page.text(
+            (area.x + 8.0, cy0 + 9.0 * k as f32),
+            Style::new(6.5, weight, Ink::Black),
+            Align::Left,
+            &l,
+        );
+    }
+}
+
+/// "50" for 50.0, "2.5" for 2.5.
+fn fonts_free_number(v: f64) -> String {
+    if (v - v.round()).abs() < 1e-9 {
+        format!("{}", v.round() as i64)
+    } else {
+        format!("{v}")
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn scales_are_standard_and_fit() {
+        // 30 mm of paper per metre needed → 1:50 gives 20 mm (fits), 1:25 gives 40 (too big).
+        assert_eq!(standard_scale(30.0), 50.0);
+        assert_eq!(standard_scale(40.0), 25.0);
+        assert_eq!(standard_scale(1000.0), 1.0);
+        assert_eq!(bar_length(5.0), 1.0);
+        assert_eq!(bar_length(12.0), 2.0);
+        assert_eq!(magnification(0.001, 5.0), 200.0);
+        assert_eq!(magnification(1.0, 5.0), 1.0);
+    }
+}

@@ -1,0 +1,37 @@
+//! The Sheet: a printable PDF summary of a rig, like a calc sheet an engineer signs, and the
+//! CSV and JSON exports of the same results.
+//!
+//! Responsible for gathering the results from `rigwright-core` ([`Sheet::build`]), laying
+//! them out on A4 or Letter pages and writing the PDF ([`Sheet::to_pdf`]), and for the export
+//! files ([`export`]). Not responsible for any mechanics: every number comes from the core.
+//! Used by the `sheet` and `export` commands and by the app's File menu.
+
+mod compose;
+mod content;
+mod drawing;
+pub mod export;
+pub mod fonts;
+mod format;
+pub mod page;
+mod table;
+
+pub use compose::CAUTIONS;
+pub use content::{CaseChoice, MODE_COUNT, Sheet, SheetOptions, sha256_hex, today};
+pub use page::{Op, Page, Paper};
+
+impl Sheet {
+    /// The laid-out pages (display lists), for inspection.
+    pub fn pages(&self, paper: Paper) -> Vec<Page> {
+        compose::pages(self, paper)
+    }
+
+    /// The sheet as PDF bytes.
+    pub fn to_pdf(&self, paper: Paper) -> Result<Vec<u8>, String> {
+        let title = if self.project.title.is_empty() {
+            "Rigwright sheet".to_string()
+        } else {
+            format!("{} — Rigwright sheet", self.project.title)
+        };
+        page::render(&self.pages(paper), paper, &title)
+    }
+}
