@@ -239,3 +239,28 @@ fn an_unloaded_node_between_colinear_springs_is_a_mechanism_sideways() {
         other => panic!("expected a mechanism, got {other:?}"),
     }
 }
+
+/// A weightless node on one unstressed cable has no stiffness in any direction (a slack
+/// tension-only member, closed form): the diagnostic must name that node and a real direction,
+/// not the anchor.
+#[test]
+fn a_lone_slack_cable_is_a_mechanism_at_its_free_end() {
+    let mut p = planar("lone cable");
+    p.nodes = vec![anchor("anchor", (0.0, 0.0, 0.0)), node("end", (1.0, 0.0, 0.0), 0.0)];
+    p.members = vec![member("c", "anchor", "end", cable(1e6, Rest::AsDrawn))];
+    match Statics::new(&model(&p)).solve(0, None) {
+        Err(SolveError::Mechanism { node, direction }) => {
+            assert_eq!(node, "end");
+            let len = direction.iter().map(|d| d * d).sum::<f64>().sqrt();
+            assert!((len - 1.0).abs() < 1e-12, "{direction:?}");
+        }
+        Ok(eq) => match eq.stability {
+            Stability::Mechanism { node, direction } => {
+                assert_eq!(node, "end");
+                assert!((direction.iter().map(|d| d * d).sum::<f64>().sqrt() - 1.0).abs() < 1e-12);
+            }
+            other => panic!("{other:?}"),
+        },
+        Err(e) => panic!("{e}"),
+    }
+}

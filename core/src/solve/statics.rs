@@ -656,6 +656,15 @@ fn definiteness(sys: &System, values: &[f64], dmax: f64) -> Definiteness {
 pub fn lowest_mode(sys: &System, values: &[f64]) -> (f64, Vec<f64>) {
     let n = sys.size();
     let dmax = sys.max_diagonal(values);
+    if dmax <= 1e-250 {
+        // Nothing is stiff at all (e.g. one slack, unstressed cable): every free direction is a
+        // zero mode; report the first.
+        let mut v = vec![0.0; n];
+        if let Some(first) = v.first_mut() {
+            *first = 1.0;
+        }
+        return (0.0, v);
+    }
     let mut shift = 0.0;
     let factor: Factor = loop {
         if let Some(f) = sys.factor(values, shift) {
