@@ -452,3 +452,28 @@ fn modes_and_checks_of_a_large_rig_run_beside_the_window() {
     );
     std::fs::remove_file(path).ok();
 }
+
+#[test]
+fn title_block_and_marked_nodes_edited_in_the_app_reach_the_sheet() {
+    let mut h = harness();
+    // The project's Sheet title block, through its text field.
+    h.get_by_label("Sheet title block").click();
+    h.run();
+    h.get_by_label("Checked by").click();
+    h.run();
+    h.get_by_label("Checked by").type_text("B. Checker");
+    h.run();
+    assert_eq!(h.state().doc.project.sheet.checked_by, "B. Checker");
+    // Mark the sign's node for a stiffness listing.
+    let sign = h.state().doc.project.nodes.iter().position(|n| n.id == "sign").unwrap();
+    h.state_mut().selection = Selection::Node(sign);
+    h.run();
+    h.get_by_label("list its tangent stiffness on the Sheet").click();
+    h.run();
+    assert_eq!(h.state().doc.project.sheet.stiffness_at, ["sign"]);
+    let sheet = rigwright::gui::export::build_sheet(h.state()).unwrap();
+    assert_eq!(sheet.info.checked_by, "B. Checker");
+    assert_eq!(sheet.stiffness.len(), 1);
+    assert_eq!(sheet.stiffness[0].0, "sign");
+    assert!(sheet.stiffness[0].1.is_ok());
+}

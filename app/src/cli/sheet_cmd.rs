@@ -45,6 +45,7 @@ impl InfoArgs {
             checked_by: self.checked_by.unwrap_or_default(),
             date: self.date.unwrap_or_default(),
             revision: self.revision.unwrap_or_default(),
+            stiffness_at: Vec::new(),
         }
     }
 }

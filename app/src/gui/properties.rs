@@ -105,6 +105,28 @@ fn project(app: &mut RigApp, ui: &mut egui::Ui) {
         ui.label(units.show(Quantity::Mass, app.doc.model.nodes.iter().map(|n| n.mass).sum()));
         ui.end_row();
     });
+    egui::CollapsingHeader::new("Sheet title block")
+        .id_salt("sheet-info")
+        .show(ui, |ui| {
+            egui::Grid::new("sheet-props").num_columns(2).spacing([8.0, 6.0]).show(ui, |ui| {
+                let info = p.sheet.clone();
+                let fields: [(&str, &str, InfoField); 7] = [
+                    ("Project / job", &info.project, |s| &mut s.project),
+                    ("Location", &info.location, |s| &mut s.location),
+                    ("Client", &info.client, |s| &mut s.client),
+                    ("Prepared by", &info.prepared_by, |s| &mut s.prepared_by),
+                    ("Checked by", &info.checked_by, |s| &mut s.checked_by),
+                    ("Date (empty: today)", &info.date, |s| &mut s.date),
+                    ("Revision", &info.revision, |s| &mut s.revision),
+                ];
+                for (label, value, field) in fields {
+                    if let Some(t) = text(ui, label, value) {
+                        edit(app, format!("sheet-{label}"), move |d| *field(&mut d.sheet) = t);
+                    }
+                }
+            });
+            ui.label(RichText::new("Printed on every page of the Sheet (File menu, Print Sheet…).").weak());
+        });
     ui.add_space(6.0);
     ui.label(RichText::new("Select a node, member or load on the Rig view to edit it.").weak());
     if !p.notes.is_empty() {
@@ -164,6 +186,20 @@ fn node(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
         });
         ui.end_row();
     });
+    let mut marked = app.doc.project.sheet.stiffness_at.contains(&n.id);
+    if ui
+        .checkbox(&mut marked, "list its tangent stiffness on the Sheet")
+        .on_hover_text("The Sheet prints the condensed stiffness at every node marked here")
+        .changed()
+    {
+        let id = n.id.clone();
+        edit(app, format!("node-mark-{i}"), move |d| {
+            d.sheet.stiffness_at.retain(|s| *s != id);
+            if marked {
+                d.sheet.stiffness_at.push(id);
+            }
+        });
+    }
     if let Some(a) = app.answer()
         && let Some(mi) = a.model.node_index(&n.id)
     {
@@ -176,6 +212,9 @@ fn node(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
         }
     }
 }
+
+/// One text field of the Sheet title block.
+type InfoField = fn(&mut rigwright_core::model::SheetInfo) -> &mut String;
 
 fn rename_node(d: &mut Project, old: &str, new: &str) {
     for n in d.nodes.iter_mut().filter(|n| n.id == old) {
@@ -193,6 +232,9 @@ fn rename_node(d: &mut Project, old: &str, new: &str) {
         for l in c.loads.iter_mut().filter(|l| l.node == old) {
             l.node = new.to_string();
         }
+    }
+    for s in d.sheet.stiffness_at.iter_mut().filter(|s| *s == old) {
+        *s = new.to_string();
     }
 }
 

@@ -104,6 +104,7 @@ fn merge(base: &SheetInfo, over: &SheetInfo) -> SheetInfo {
         checked_by: pick(&base.checked_by, &over.checked_by),
         date: pick(&base.date, &over.date),
         revision: pick(&base.revision, &over.revision),
+        stiffness_at: base.stiffness_at.clone(),
     };
     if info.date.trim().is_empty() {
         info.date = today();
@@ -127,7 +128,14 @@ impl Sheet {
             None => None,
         };
         let mut marked = Vec::new();
-        for id in &options.stiffness {
+        let mut ids: Vec<&String> = options.stiffness.iter().collect();
+        // Nodes marked in the project (the app's node properties), after those asked for here.
+        for id in &project.sheet.stiffness_at {
+            if !ids.contains(&id) && model.node_index(id).is_some() {
+                ids.push(id);
+            }
+        }
+        for id in ids {
             let i = model
                 .node_index(id)
                 .ok_or_else(|| format!("node `{id}` does not exist; check the id (--stiffness takes a node id)"))?;

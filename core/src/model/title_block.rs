@@ -26,6 +26,9 @@ pub struct SheetInfo {
     pub date: String,
     #[serde(skip_serializing_if = "String::is_empty")]
     pub revision: String,
+    /// Nodes whose tangent stiffness the sheet lists (marked by the user).
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub stiffness_at: Vec<String>,
 }
 
 impl SheetInfo {
