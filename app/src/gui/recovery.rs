@@ -23,6 +23,7 @@ use rigwright_core::Project;
 use rigwright_core::model::{backup_path, save_atomic};
 
 use super::{Document, RigApp};
+use crate::sheet::civil_from_days;
 
 /// The environment variable that overrides the data folder (tests, portable installs).
 pub const DATA_DIR_VAR: &str = "RIGWRIGHT_DATA_DIR";
@@ -423,21 +424,6 @@ fn describe_time(t: SystemTime) -> String {
         Err(_) => "in the future; check the clock".to_string(),
     };
     format!("on {y:04}-{m:02}-{d:02} at {hh:02}:{mm:02} UTC ({ago})")
-}
-
-/// Proleptic Gregorian date of a day count from 1970-01-01 (the "civil from days" algorithm
-/// of H. Hinnant, "chrono-Compatible Low-Level Date Algorithms"; from memory).
-fn civil_from_days(z: i64) -> (i64, u32, u32) {
-    let z = z + 719_468;
-    let era = z.div_euclid(146_097);
-    let doe = z.rem_euclid(146_097);
-    let yoe = (doe - doe / 1460 + doe / 36_524 - doe / 146_096) / 365;
-    let doy = doe - (365 * yoe + yoe / 4 - yoe / 100);
-    let mp = (5 * doy + 2) / 153;
-    let d = (doy - (153 * mp + 2) / 5 + 1) as u32;
-    let m = if mp < 10 { mp + 3 } else { mp - 9 } as u32;
-    let y = yoe + era * 400 + i64::from(m <= 2);
-    (y, m, d)
 }
 
 #[cfg(test)]

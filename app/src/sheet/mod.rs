@@ -16,6 +16,7 @@ pub mod page;
 mod table;
 
 pub use compose::CAUTIONS;
+pub(crate) use content::civil_from_days;
 pub use content::{CaseChoice, MODE_COUNT, Sheet, SheetOptions, sha256_hex, today};
 pub use page::{Op, Page, Paper};
 
