@@ -101,7 +101,17 @@ fn beaded_string_matches_lagranges_formula_and_converges_to_the_taut_string() {
 /// every pair.
 #[test]
 fn repeated_frequency_pairs_of_a_3d_string_are_all_found_by_the_sparse_eigensolver() {
-    let beads = 250;
+    check_string_pairs(250);
+}
+
+/// The same above 5,000 degrees of freedom (5,097), where the solves and the basis products are
+/// shared out among threads.
+#[test]
+fn repeated_frequency_pairs_survive_the_threaded_solves_of_a_long_string() {
+    check_string_pairs(1700);
+}
+
+fn check_string_pairs(beads: usize) {
     let m = beaded_string(beads, false);
     let statics = Statics::new(&m);
     let eq = statics.solve(0, None).unwrap();

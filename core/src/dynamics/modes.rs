@@ -198,17 +198,19 @@ fn lanczos_pairs(apply: &dyn Fn(&DMatrix<f64>) -> DMatrix<f64>, m: usize, count:
         let q = v.columns(k * b, b).into_owned();
         let mut w = apply(&q);
         if let Some(bp) = &beta_prev {
-            w -= v.columns((k - 1) * b, b) * bp.transpose();
+            subtract(&v, (k - 1) * b..k * b, &bp.transpose(), &mut w);
         }
-        let a = q.transpose() * &w;
-        w -= &q * &a;
+        let a = inner(&v, k * b..(k + 1) * b, &w);
+        subtract(&v, k * b..(k + 1) * b, &a, &mut w);
         // Full reorthogonalisation against the whole basis; a second pass only when the first
         // removed most of a column ("twice is enough", Parlett, *The Symmetric Eigenvalue
         // Problem*, §6.9).
         let before: Vec<f64> = w.column_iter().map(|c| c.norm()).collect();
-        project_out(&v, (k + 1) * b, &mut w);
+        let c = inner(&v, 0..(k + 1) * b, &w);
+        subtract(&v, 0..(k + 1) * b, &c, &mut w);
         if w.column_iter().zip(&before).any(|(c, n0)| c.norm() < 0.7 * n0) {
-            project_out(&v, (k + 1) * b, &mut w);
+            let c = inner(&v, 0..(k + 1) * b, &w);
+            subtract(&v, 0..(k + 1) * b, &c, &mut w);
         }
         let a = (&a + a.transpose()) * 0.5;
         t.view_mut((k * b, k * b), (b, b)).copy_from(&a);
@@ -237,18 +239,64 @@ fn lanczos_pairs(apply: &dyn Fn(&DMatrix<f64>) -> DMatrix<f64>, m: usize, count:
     Err(ModeError::NotConverged(unconverged))
 }
 
-/// `w ← w − V Vᵀ w` over the first `cols` columns of the basis `v` (faer's dense products,
-/// much faster than the generic ones for these tall matrices).
-fn project_out(v: &DMatrix<f64>, cols: usize, w: &mut DMatrix<f64>) {
+/// Tall blocks with at least this many rows are shared out among the machine's threads.
+const PARALLEL_ROWS: usize = 5000;
+
+/// Row ranges splitting `m` rows among the threads (a single range for small blocks). The
+/// products of the tall, thin basis with a block are limited by reading the basis from memory,
+/// which two threads do faster than one.
+fn row_ranges(m: usize) -> Vec<std::ops::Range<usize>> {
+    let threads = if m >= PARALLEL_ROWS {
+        std::thread::available_parallelism().map_or(1, |t| t.get()).min(8)
+    } else {
+        1
+    };
+    let rows = m.div_ceil(threads);
+    (0..threads)
+        .map(|t| t * rows..((t + 1) * rows).min(m))
+        .filter(|r| !r.is_empty())
+        .collect()
+}
+
+/// `V[:, cols]ᵀ w`, summed over row ranges computed in parallel.
+fn inner(v: &DMatrix<f64>, cols: std::ops::Range<usize>, w: &DMatrix<f64>) -> DMatrix<f64> {
     let (m, b) = w.shape();
-    let basis = faer::MatRef::from_column_major_slice(&v.as_slice()[..m * cols], m, cols);
-    let c = basis.transpose() * faer::MatRef::from_column_major_slice(w.as_slice(), m, b);
-    let update = basis * &c;
-    for j in 0..b {
-        for i in 0..m {
-            w[(i, j)] -= update[(i, j)];
-        }
+    let basis = faer::MatRef::from_column_major_slice(&v.as_slice()[m * cols.start..m * cols.end], m, cols.len());
+    let block = faer::MatRef::from_column_major_slice(w.as_slice(), m, b);
+    let part = |r: std::ops::Range<usize>| basis.subrows(r.start, r.len()).transpose() * block.subrows(r.start, r.len());
+    let ranges = row_ranges(m);
+    let parts: Vec<faer::Mat<f64>> = if ranges.len() == 1 {
+        vec![part(0..m)]
+    } else {
+        std::thread::scope(|s| {
+            let handles: Vec<_> = ranges.into_iter().map(|r| s.spawn(move || part(r))).collect();
+            handles.into_iter().map(|h| h.join().expect("inner product thread")).collect()
+        })
+    };
+    DMatrix::from_fn(cols.len(), b, |i, j| parts.iter().map(|p| p[(i, j)]).sum())
+}
+
+/// `w ← w − V[:, cols] c`, over row ranges in parallel.
+fn subtract(v: &DMatrix<f64>, cols: std::ops::Range<usize>, c: &DMatrix<f64>, w: &mut DMatrix<f64>) {
+    let (m, b) = w.shape();
+    let basis = faer::MatRef::from_column_major_slice(&v.as_slice()[m * cols.start..m * cols.end], m, cols.len());
+    let coef = faer::MatRef::from_column_major_slice(c.as_slice(), cols.len(), b);
+    let update = |r: std::ops::Range<usize>, dst: faer::MatMut<'_, f64>| {
+        faer::linalg::matmul::matmul(dst, faer::Accum::Add, basis.subrows(r.start, r.len()), coef, -1.0, faer::Par::Seq);
+    };
+    let ranges = row_ranges(m);
+    let mut rest = faer::MatMut::from_column_major_slice_mut(w.as_mut_slice(), m, b);
+    if ranges.len() == 1 {
+        update(0..m, rest);
+        return;
     }
+    std::thread::scope(|s| {
+        for r in ranges {
+            let (head, tail) = rest.split_at_row_mut(r.len());
+            rest = tail;
+            s.spawn(move || update(r, head));
+        }
+    });
 }
 
 /// Ritz pairs from the first `dim` basis vectors, largest first, and how many of the first

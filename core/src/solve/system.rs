@@ -102,13 +102,34 @@ impl Factor {
         self.llt.solve_in_place(mat);
     }
 
-    /// Solves for `ncols` right-hand sides stored column-major in `b`, in place.
+    /// Solves for `ncols` right-hand sides stored column-major in `b`, in place. Large systems
+    /// with several right-hand sides share the columns out among the machine's threads: the
+    /// triangular solves are limited by reading the factor from memory, and two threads
+    /// reading it at once finish sooner than one thread with all the columns (measured with
+    /// `cargo run --release -p rigwright-core --example solve_timing`).
     pub fn solve_columns_in_place(&self, b: &mut [f64], ncols: usize) {
         let n = b.len() / ncols.max(1);
-        let mat = faer::MatMut::from_column_major_slice_mut(b, n, ncols);
-        self.llt.solve_in_place(mat);
+        let threads = if n >= PARALLEL_SOLVE_MIN_DOFS && ncols >= 2 {
+            std::thread::available_parallelism().map_or(1, |t| t.get()).min(ncols)
+        } else {
+            1
+        };
+        if threads == 1 {
+            self.llt.solve_in_place(faer::MatMut::from_column_major_slice_mut(b, n, ncols));
+            return;
+        }
+        let per = ncols.div_ceil(threads);
+        std::thread::scope(|scope| {
+            for chunk in b.chunks_mut(n * per) {
+                let cols = chunk.len() / n;
+                scope.spawn(move || self.llt.solve_in_place(faer::MatMut::from_column_major_slice_mut(chunk, n, cols)));
+            }
+        });
     }
 }
+
+/// Systems with at least this many DOFs solve several right-hand sides on several threads.
+const PARALLEL_SOLVE_MIN_DOFS: usize = 5000;
 
 /// Values assembled at one configuration.
 pub struct Evaluation {
