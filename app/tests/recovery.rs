@@ -157,3 +157,36 @@ fn closing_with_unsaved_changes_asks_first() {
     assert!(h.query_by_label("Unsaved changes").is_none());
     std::fs::remove_dir_all(&dir).ok();
 }
+
+#[test]
+fn two_windows_keep_separate_copies_and_a_running_windows_copy_is_never_offered() {
+    let dir = scratch("windows");
+    let mut first = harness(&dir, Duration::ZERO);
+    add_anchor(&mut first, "first-window");
+    first.state().recovery.flush();
+    let first_copy = first.state().recovery.file().unwrap();
+    assert!(first_copy.exists());
+
+    // A second window while the first runs: nothing offered, and a copy of its own.
+    let mut second = harness(&dir, Duration::ZERO);
+    second.run();
+    assert!(second.query_by_label("Recover unsaved changes?").is_none());
+    assert!(second.state().recovery.offer.is_none(), "the running window's copy is not offered");
+    add_anchor(&mut second, "second-window");
+    second.state().recovery.flush();
+    let second_copy = second.state().recovery.file().unwrap();
+    assert_ne!(first_copy, second_copy);
+    let first_text = std::fs::read_to_string(&first_copy).unwrap();
+    assert!(first_text.contains("first-window") && !first_text.contains("second-window"));
+    assert!(std::fs::read_to_string(&second_copy).unwrap().contains("second-window"));
+
+    // The first window dies (its lock goes with it): the next start offers its copy, not the
+    // copy of the second window, which is still running.
+    drop(first);
+    let mut third = harness(&dir, Duration::ZERO);
+    third.run();
+    let offer = third.state().recovery.offer.as_ref().expect("the dead window's copy is offered");
+    assert_eq!(offer.file, first_copy);
+    drop((second, third));
+    std::fs::remove_dir_all(&dir).ok();
+}

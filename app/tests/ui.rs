@@ -427,15 +427,21 @@ fn step_until(h: &mut Harness<'static, RigApp>, done: impl Fn(&RigApp) -> bool) 
     assert!(done(h.state()), "timed out");
 }
 
-#[test]
-fn modes_and_checks_of_a_large_rig_run_beside_the_window() {
+/// The app with a 22×22 net open (480 nodes, 1,200 free DOFs), solved; and the file's path.
+fn large_net(name: &str) -> (Harness<'static, RigApp>, std::path::PathBuf) {
     let mut h = harness();
     let net = rigwright_core::gallery::cable_net(22, 1.0, 5.0e6, 5000.0, 2.0);
-    let path = std::env::temp_dir().join(format!("rigwright-large-{}.rig.ron", std::process::id()));
+    let path = std::env::temp_dir().join(format!("rigwright-{name}-{}.rig.ron", std::process::id()));
     std::fs::write(&path, net.to_ron()).unwrap();
     h.state_mut().queue(Command::Open(path.clone()));
     h.step();
     step_until(&mut h, |app| app.answer().is_some());
+    (h, path)
+}
+
+#[test]
+fn modes_and_checks_of_a_large_rig_run_beside_the_window() {
+    let (mut h, path) = large_net("large");
     h.get_by_label("Modes").click();
     h.step();
     // The first frames show the work in progress; the window keeps drawing meanwhile.
@@ -450,6 +456,92 @@ fn modes_and_checks_of_a_large_rig_run_beside_the_window() {
         h.state().sizing.report().unwrap().members.len(),
         h.state().doc.project.members.len()
     );
+    std::fs::remove_file(path).ok();
+}
+
+fn button(h: &Harness<'static, RigApp>, label: &str) -> bool {
+    h.query_by_role_and_label(egui::accesskit::Role::Button, label).is_some()
+}
+
+#[test]
+fn long_computations_of_a_large_rig_can_be_cancelled_and_started_again() {
+    let (mut h, path) = large_net("cancel");
+
+    // Modes: Cancel, then compute again.
+    h.get_by_label("Modes").click();
+    h.step();
+    assert!(h.state().modes_job.is_some());
+    h.get_by_role_and_label(egui::accesskit::Role::Button, "Cancel").click();
+    h.step();
+    assert!(h.state().modes_job.is_none(), "cancelled");
+    h.step();
+    assert!(button(&h, "Compute the modes"), "offers to compute again");
+    h.get_by_role_and_label(egui::accesskit::Role::Button, "Compute the modes").click();
+    h.step();
+    h.step();
+    assert!(h.state().modes_job.is_some(), "computing again");
+    step_until(&mut h, |app| app.modes.as_ref().is_some_and(|m| m.result.is_ok()));
+
+    // Checks: Cancel, then check now.
+    h.get_by_label("Checks").click();
+    h.step();
+    assert!(h.state().sizing.checking());
+    h.get_by_role_and_label(egui::accesskit::Role::Button, "Cancel").click();
+    h.step();
+    assert!(!h.state().sizing.checking() && h.state().sizing.report().is_none());
+    h.step();
+    h.get_by_role_and_label(egui::accesskit::Role::Button, "Check now").click();
+    h.step();
+    h.step();
+    assert!(h.state().sizing.checking());
+    step_until(&mut h, |app| app.sizing.report().is_some());
+
+    // Sweep: runs beside the window and can be cancelled.
+    h.get_by_label("Sweep").click();
+    h.run();
+    h.get_by_role_and_label(egui::accesskit::Role::Button, "Run Sweep").click();
+    h.step();
+    assert!(
+        h.state().sizing.sweeping(),
+        "a 480-node rig is swept on another thread: {:?}",
+        h.state().sizing.sweep_result().map(|r| r.as_ref().map(|r| r.rows.len()))
+    );
+    h.step();
+    h.get_by_role_and_label(egui::accesskit::Role::Button, "Cancel").click();
+    h.step();
+    assert!(!h.state().sizing.sweeping() && h.state().sizing.sweep_result().is_none());
+
+    // Pluck: pull the middle node, let go; it is prepared on another thread.
+    tool(&mut h, "Pull");
+    let start = {
+        let a = h.state().answer().unwrap();
+        let p = a.eq.nodes[a.model.node_index("n11_11").unwrap()].position;
+        h.state().screen_pos([p.x, p.y, p.z])
+    };
+    h.hover_at(start);
+    h.step();
+    h.drag_at(start);
+    h.step();
+    let end = start + egui::vec2(0.0, 20.0);
+    h.hover_at(end);
+    h.step();
+    step_until(&mut h, |app| app.pull.as_ref().is_some_and(|p| p.force.is_some()));
+    h.drop_at(end);
+    h.step();
+    h.step();
+    assert!(
+        h.state().pluck_job.is_some(),
+        "the Pluck of 1,200 free DOFs is prepared on another thread"
+    );
+    h.get_by_label("Pluck").click();
+    h.step();
+    h.get_by_role_and_label(egui::accesskit::Role::Button, "Cancel").click();
+    h.step();
+    assert!(h.state().pluck_job.is_none() && h.state().pluck.is_none(), "not started");
+    h.state_mut().queue(Command::Pluck);
+    h.step();
+    step_until(&mut h, |app| app.pluck.is_some());
+    assert!(h.state().pluck.as_ref().unwrap().failure.is_none());
     std::fs::remove_file(path).ok();
 }
 

@@ -21,7 +21,9 @@ pub mod gallery;
 pub mod model;
 pub mod sizing;
 pub mod solve;
+pub mod watch;
 
 pub use element::{MemberKind, MemberState};
 pub use model::{Axis, FILE_EXTENSION, FORMAT_VERSION, Member, Model, Node, Problem, Project, ProjectError, Rest, Support, Vec3};
 pub use solve::{Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, SolveError, SolveSettings, Stability, Statics};
+pub use watch::Watch;

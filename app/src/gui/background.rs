@@ -1,30 +1,37 @@
 //! A computation on its own thread, polled once per frame, so the window never waits for it.
 //!
-//! Dropping or replacing a [`Background`] abandons its result; the thread finishes on its own
-//! (the core's solvers all have iteration caps).
+//! The work receives a [`Watch`]: it counts its steps there (shown as progress) and stops at
+//! its next check once the [`Background`] is cancelled, replaced or dropped, so an abandoned
+//! computation does not keep a core busy.
 
 use std::sync::mpsc::{Receiver, TryRecvError, channel};
 use std::time::Instant;
+
+use rigwright_core::Watch;
 
 /// A result being computed on another thread.
 pub struct Background<K, T> {
     /// What the result belongs to (e.g. a document revision).
     pub key: K,
     pub started: Instant,
+    watch: Watch,
     rx: Receiver<T>,
 }
 
 impl<K: PartialEq, T: Send + 'static> Background<K, T> {
     /// Starts `work` on a new thread.
-    pub fn spawn(key: K, work: impl FnOnce() -> T + Send + 'static) -> Self {
+    pub fn spawn(key: K, work: impl FnOnce(Watch) -> T + Send + 'static) -> Self {
         let (tx, rx) = channel();
+        let watch = Watch::new();
+        let theirs = watch.clone();
         std::thread::spawn(move || {
             // The receiver may be gone (the result was abandoned); nothing to do then.
-            let _ = tx.send(work());
+            let _ = tx.send(work(theirs));
         });
         Background {
             key,
             started: Instant::now(),
+            watch,
             rx,
         }
     }
@@ -36,5 +43,16 @@ impl<K: PartialEq, T: Send + 'static> Background<K, T> {
             Err(TryRecvError::Empty) => None,
             Err(TryRecvError::Disconnected) => Some(Err("the computation stopped without a result".into())),
         }
+    }
+
+    /// Steps the work has finished (its own unit: load cases, Sweep values, Lanczos blocks).
+    pub fn steps_done(&self) -> usize {
+        self.watch.done()
+    }
+}
+
+impl<K, T> Drop for Background<K, T> {
+    fn drop(&mut self) {
+        self.watch.stop();
     }
 }

@@ -260,6 +260,8 @@ pub struct RigApp {
     pub modes: Option<pluck::ModesState>,
     /// Modes of a large rig being computed on another thread.
     pub modes_job: Option<pluck::ModesJob>,
+    /// A Pluck being prepared on another thread (large rigs).
+    pub pluck_job: Option<pluck::PluckJob>,
     /// Start a Pluck when a pulled node is let go.
     pub pluck_on_release: bool,
     /// Checks, Sweep and the spring designer.
@@ -332,6 +334,7 @@ impl RigApp {
             pluck: None,
             modes: None,
             modes_job: None,
+            pluck_job: None,
             pluck_on_release: true,
             message: None,
             show_about: false,
@@ -729,27 +732,9 @@ impl RigApp {
         if held_eq.hold.is_none() || !held_eq.stability.is_stable() {
             return;
         }
-        let model = pull.model.clone();
+        let (model, node) = (pull.model.clone(), pull.node);
         let start = held_eq.positions();
-        let statics = rigwright_core::Statics::new(&model);
-        let about = match statics.solve(self.case, Some(&start)) {
-            Ok(eq) if eq.stability.is_stable() => eq,
-            Ok(eq) => {
-                self.message = Some((format!("Pluck: {}", eq.stability.describe()), true));
-                return;
-            }
-            Err(e) => {
-                self.message = Some((format!("Pluck: {e}"), true));
-                return;
-            }
-        };
-        match pluck::PluckSession::start(model, self.case, &about, start, pull.node) {
-            Ok(session) => {
-                self.pluck = Some(session);
-                self.readout_tab = ReadoutTab::Pluck;
-            }
-            Err(e) => self.message = Some((format!("Pluck: {e}"), true)),
-        }
+        pluck::begin(self, model, start, node);
     }
 
     /// Starts a Pull on model node `node` from the current answer.
@@ -777,6 +762,7 @@ impl RigApp {
             active: true,
         });
         self.pluck = None;
+        self.pluck_job = None;
         self.readout_tab = ReadoutTab::Pull;
         true
     }

@@ -10,8 +10,8 @@ use std::time::Instant;
 
 use eframe::egui::{self, Color32, Pos2, RichText, Stroke};
 use egui_plot::{Legend, Line, Plot, PlotPoints};
-use rigwright_core::dynamics::{Modes, Motion, MotionSettings, modes, spectrum::spectrum};
-use rigwright_core::{Equilibrium, Model, Statics, Vec3};
+use rigwright_core::dynamics::{Modes, Motion, MotionSettings, modes, modes_watched, spectrum::spectrum};
+use rigwright_core::{Equilibrium, Model, Statics, Vec3, Watch};
 
 use super::RigApp;
 use super::background::Background;
@@ -55,16 +55,19 @@ pub struct PluckSession {
 
 impl PluckSession {
     /// Starts the motion from `start` (positions of the pulled, held rig) about `eq`.
-    pub fn start(model: Arc<Model>, case: usize, eq: &Equilibrium, start: Vec<Vec3>, node: usize) -> Result<Self, String> {
+    pub fn start(model: Arc<Model>, case: usize, eq: &Equilibrium, start: Vec<Vec3>, node: usize, watch: &Watch) -> Result<Self, String> {
         let about = eq.positions();
         let offset = start[node] - about[node];
         let direction = if offset.norm() > 0.0 { offset.normalize() } else { Vec3::y() };
         let statics = Statics::new(&model);
-        let linear = modes(&statics, eq, 1)
+        let linear = modes_watched(&statics, eq, 1, watch)
             .ok()
             .and_then(|m| m.modes.first().map(|m| (m.frequency_hz, m.period_s)));
         // Step: 1/100 of the lowest period, at most 2 ms.
         let dt = linear.map(|(_, t)| t / 100.0).unwrap_or(1e-3).min(2e-3);
+        if watch.stopped() {
+            return Err("cancelled".into());
+        }
         let motion =
             Motion::new(&model, case, &start, None, &about, MotionSettings { dt, ..Default::default() }).map_err(|e| e.to_string())?;
         let node_id = model.nodes[node].id.clone();
@@ -137,6 +140,47 @@ impl PluckSession {
     }
 }
 
+/// A Pluck being prepared on another thread (large rigs), keyed by the model it belongs to.
+pub type PluckJob = Background<usize, Result<PluckSession, String>>;
+
+/// Above this many free DOFs a Pluck is prepared on another thread.
+const PLUCK_IN_BACKGROUND_DOF: usize = 1000;
+
+/// The key of a model: its address, which changes with every edit.
+pub fn model_key(model: &Arc<Model>) -> usize {
+    Arc::as_ptr(model) as usize
+}
+
+/// Prepares a Pluck released from `start` (the held shape of a Pull of `node`): the
+/// equilibrium it vibrates about, found from the held shape, then the session.
+pub fn prepare(model: Arc<Model>, case: usize, start: Vec<Vec3>, node: usize, watch: &Watch) -> Result<PluckSession, String> {
+    let statics = Statics::new(&model).cancel_with(watch.flag());
+    let about = match statics.solve(case, Some(&start)) {
+        Ok(eq) if eq.stability.is_stable() => eq,
+        Ok(eq) => return Err(eq.stability.describe()),
+        Err(e) => return Err(e.to_string()),
+    };
+    PluckSession::start(model, case, &about, start, node, watch)
+}
+
+/// Starts a Pluck: at once on a small rig, on another thread on a large one (the Pluck tab
+/// shows it being prepared, with a Cancel button).
+pub fn begin(app: &mut RigApp, model: Arc<Model>, start: Vec<Vec3>, node: usize) {
+    let case = app.case;
+    app.pluck = None;
+    app.pluck_job = None;
+    app.readout_tab = super::ReadoutTab::Pluck;
+    if Statics::new(&model).dof_count() <= PLUCK_IN_BACKGROUND_DOF {
+        match prepare(model, case, start, node, &Watch::new()) {
+            Ok(session) => app.pluck = Some(session),
+            Err(e) => app.message = Some((format!("Pluck: {e}"), true)),
+        }
+        return;
+    }
+    let key = model_key(&model);
+    app.pluck_job = Some(Background::spawn(key, move |watch| prepare(model, case, start, node, &watch)));
+}
+
 /// Natural modes of the current equilibrium, and the one being animated.
 /// Modes being computed on another thread, keyed like [`ModesState`].
 pub type ModesJob = Background<(usize, usize), Result<Modes, String>>;
@@ -148,6 +192,8 @@ pub struct ModesState {
     pub animate: Option<usize>,
     /// Animation clock (s).
     pub clock: f64,
+    /// The computation was cancelled by the user (no result; offer to compute again).
+    pub cancelled: bool,
 }
 
 /// Above this many free DOFs the modes are computed on another thread.
@@ -170,6 +216,7 @@ pub fn refresh_modes(app: &mut RigApp) {
         result,
         animate: None,
         clock: 0.0,
+        cancelled: false,
     };
     if let Some(job) = app.modes_job.as_ref().filter(|j| j.key == key) {
         if let Some(r) = job.poll() {
@@ -188,9 +235,9 @@ pub fn refresh_modes(app: &mut RigApp) {
         return;
     };
     app.modes = None;
-    app.modes_job = Some(Background::spawn(key, move || {
+    app.modes_job = Some(Background::spawn(key, move |watch| {
         let statics = Statics::new(&model);
-        modes(&statics, &eq, 12).map_err(|e| e.to_string())
+        modes_watched(&statics, &eq, 12, &watch).map_err(|e| e.to_string())
     }));
 }
 
@@ -250,6 +297,20 @@ pub fn draw_moving(app: &RigApp, painter: &egui::Painter, positions: &[Vec3], fo
 /// The Pluck tab of the Readouts.
 pub fn pluck_ui(app: &mut RigApp, ui: &mut egui::Ui) {
     let units = app.settings.units;
+    if let Some(job) = &app.pluck_job {
+        let mut cancel = false;
+        ui.horizontal(|ui| {
+            ui.label(format!(
+                "Preparing the Pluck of this large rig (the equilibrium it vibrates about and its lowest mode)… {:.1} s",
+                job.started.elapsed().as_secs_f64()
+            ));
+            cancel = ui.button("Cancel").on_hover_text("Do not start this Pluck").clicked();
+        });
+        if cancel {
+            app.pluck_job = None;
+        }
+        return;
+    }
     let Some(p) = app.pluck.as_mut() else {
         ui.label("No Pluck running. Choose the Pull tool, drag a free node and let go: the rig vibrates from where you released it.");
         return;
@@ -324,17 +385,46 @@ pub fn modes_ui(app: &mut RigApp, ui: &mut egui::Ui) {
     refresh_modes(app);
     let units: Units = app.settings.units;
     if let Some(job) = &app.modes_job {
-        ui.label(format!(
-            "Computing the natural modes of this large rig… {:.1} s",
-            job.started.elapsed().as_secs_f64()
-        ));
+        let key = job.key;
+        let mut cancel = false;
+        ui.horizontal(|ui| {
+            ui.label(format!(
+                "Computing the natural modes of this large rig… {:.1} s, {} Lanczos blocks",
+                job.started.elapsed().as_secs_f64(),
+                job.steps_done()
+            ));
+            cancel = ui.button("Cancel").on_hover_text("Stop computing the modes").clicked();
+        });
         ui.ctx().request_repaint_after(std::time::Duration::from_millis(100));
+        if cancel {
+            app.modes_job = None;
+            app.modes = Some(ModesState {
+                key,
+                result: Err("cancelled".into()),
+                animate: None,
+                clock: 0.0,
+                cancelled: true,
+            });
+        }
         return;
     }
     let Some(state) = app.modes.as_mut() else {
         ui.label("No stable equilibrium: natural frequencies exist only about a stable state.");
         return;
     };
+    if state.cancelled {
+        ui.horizontal(|ui| {
+            ui.label("The computation of the natural modes was cancelled.");
+            if ui
+                .button("Compute the modes")
+                .on_hover_text("Start computing the modes again")
+                .clicked()
+            {
+                app.modes = None;
+            }
+        });
+        return;
+    }
     let list = match &state.result {
         Ok(m) => m,
         Err(e) => {
@@ -387,6 +477,20 @@ pub fn tick(app: &mut RigApp, wall: f64) -> bool {
         app.pluck = None;
     }
     let mut moving = false;
+    if let Some(job) = &app.pluck_job {
+        if job.key != model_key(&app.doc.model) {
+            // Edited meanwhile: the Pluck belonged to the rig as it was.
+            app.pluck_job = None;
+        } else if let Some(r) = job.poll() {
+            app.pluck_job = None;
+            match r.and_then(|r| r) {
+                Ok(session) => app.pluck = Some(session),
+                Err(e) => app.message = Some((format!("Pluck: {e}"), true)),
+            }
+        } else {
+            moving = true;
+        }
+    }
     if let Some(p) = app.pluck.as_mut() {
         p.tick(wall);
         moving |= p.playing;

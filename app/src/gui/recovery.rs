@@ -8,12 +8,19 @@
 //! recover it (Recover / Discard); a discarded copy is kept once as
 //! `discarded-recovery.rig.ron`, never deleted outright.
 //!
+//! Several windows may run at once. Each claims a slot — `recovery.rig.ron`, then
+//! `recovery-2.rig.ron`, … — by holding an exclusive lock on the slot's `.lock` file for as
+//! long as it runs; the operating system drops the lock when the process ends, however it
+//! ends. So a copy whose slot is locked belongs to a window still running and is never offered
+//! or overwritten by another; a copy in an unlocked slot was left by a session that is gone.
+//!
 //! The copy is an ordinary project file with two comment lines on top naming where the
 //! document came from, so it can also be opened by hand.
 //!
 //! Not responsible for saving the user's own file (see `RigApp::save_to`) or the settings.
 
 use std::ffi::OsString;
+use std::fs::{File, TryLockError};
 use std::path::{Path, PathBuf};
 use std::sync::mpsc;
 use std::time::{Duration, Instant, SystemTime};
@@ -31,6 +38,8 @@ pub const DATA_DIR_VAR: &str = "RIGWRIGHT_DATA_DIR";
 pub const RECOVERY_FILE: &str = "recovery.rig.ron";
 /// Name a discarded recovery copy is kept under.
 pub const DISCARDED_FILE: &str = "discarded-recovery.rig.ron";
+/// Most windows that keep recovery copies at the same time.
+pub const SLOTS: usize = 8;
 /// Time between autosaves while there are unsaved changes.
 pub const DEFAULT_INTERVAL: Duration = Duration::from_secs(30);
 
@@ -86,6 +95,56 @@ impl Offer {
     }
 }
 
+/// The recovery copy of slot `k` (0-based) in `dir`.
+pub fn slot_file(dir: &Path, k: usize) -> PathBuf {
+    if k == 0 {
+        dir.join(RECOVERY_FILE)
+    } else {
+        dir.join(format!("recovery-{}.rig.ron", k + 1))
+    }
+}
+
+/// The lock file of slot `k`, held by the window that owns the slot.
+fn slot_lock(dir: &Path, k: usize) -> PathBuf {
+    if k == 0 {
+        dir.join("recovery.lock")
+    } else {
+        dir.join(format!("recovery-{}.lock", k + 1))
+    }
+}
+
+/// Where a discarded copy is set aside: `discarded-` before its name.
+pub fn discarded_path(copy: &Path) -> PathBuf {
+    let name = copy
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_else(|| RECOVERY_FILE.into());
+    copy.with_file_name(format!("discarded-{name}"))
+}
+
+/// Outcome of trying to take a slot's lock.
+enum Lock {
+    /// Taken: the slot is this window's while the file stays open.
+    Held(File),
+    /// Another running window holds it.
+    Busy,
+    /// Locks cannot be taken in this folder (some network file systems): the slot is used
+    /// without one, as a single window would.
+    Unsupported,
+}
+
+fn try_lock(path: &Path) -> Lock {
+    let file = match File::options().create(true).truncate(false).write(true).open(path) {
+        Ok(f) => f,
+        Err(_) => return Lock::Unsupported,
+    };
+    match file.try_lock() {
+        Ok(()) => Lock::Held(file),
+        Err(TryLockError::WouldBlock) => Lock::Busy,
+        Err(TryLockError::Error(_)) => Lock::Unsupported,
+    }
+}
+
 enum Job {
     Write { text: String },
     Remove,
@@ -95,6 +154,9 @@ enum Job {
 /// Autosave state of the app.
 pub struct Recovery {
     dir: Option<PathBuf>,
+    /// This window's slot (see the module notes) and the lock that holds it.
+    slot: usize,
+    lock: Option<File>,
     /// Time between autosaves while there are unsaved changes.
     pub interval: Duration,
     jobs: Option<mpsc::Sender<Job>>,
@@ -115,6 +177,8 @@ impl Recovery {
     pub fn off() -> Self {
         Recovery {
             dir: None,
+            slot: 0,
+            lock: None,
             interval: DEFAULT_INTERVAL,
             jobs: None,
             errors: None,
@@ -142,13 +206,38 @@ impl Recovery {
         }
     }
 
-    /// Path of the recovery copy, when autosave is on.
+    /// Path of this window's recovery copy, when autosave is on.
     pub fn file(&self) -> Option<PathBuf> {
-        self.dir.as_ref().map(|d| d.join(RECOVERY_FILE))
+        self.dir.as_ref().map(|d| slot_file(d, self.slot))
     }
 
-    /// Looks for a copy left by a session that did not end cleanly and offers it.
+    /// Claims a slot for this window — preferring a free slot that holds a copy left by a
+    /// session that did not end cleanly, and offering that copy — else the first free slot.
+    /// With every slot taken by running windows, autosave is off for this one.
     pub fn look(&mut self) {
+        let Some(dir) = self.dir.clone() else { return };
+        let _ = std::fs::create_dir_all(&dir);
+        let mut first_free: Option<(usize, Option<File>)> = None;
+        let mut claimed = None;
+        for k in 0..SLOTS {
+            let lock = match try_lock(&slot_lock(&dir, k)) {
+                Lock::Held(f) => Some(f),
+                Lock::Busy => continue,
+                Lock::Unsupported => None,
+            };
+            if slot_file(&dir, k).exists() {
+                claimed = Some((k, lock));
+                break;
+            }
+            if first_free.is_none() {
+                first_free = Some((k, lock));
+            }
+        }
+        let Some((slot, lock)) = claimed.or(first_free) else {
+            self.dir = None;
+            return;
+        };
+        (self.slot, self.lock) = (slot, lock);
         let Some(file) = self.file().filter(|f| f.exists()) else {
             return;
         };
@@ -176,13 +265,15 @@ impl Recovery {
     }
 
     fn send(&mut self, job: Job) {
-        let Some(dir) = self.dir.clone() else { return };
+        let (Some(dir), Some(file)) = (self.dir.clone(), self.file()) else {
+            return;
+        };
         if self.jobs.is_none() {
             let (jobs, rx) = mpsc::channel();
             let (err_tx, errors) = mpsc::channel();
             let worker = std::thread::Builder::new()
                 .name("autosave".into())
-                .spawn(move || work(&dir, &rx, &err_tx));
+                .spawn(move || work(&dir, &file, &rx, &err_tx));
             match worker {
                 Ok(w) => {
                     self.jobs = Some(jobs);
@@ -237,21 +328,20 @@ impl Recovery {
 }
 
 /// The worker: applies jobs in order until the app drops the sender.
-fn work(dir: &Path, jobs: &mpsc::Receiver<Job>, errors: &mpsc::Sender<String>) {
-    let file = dir.join(RECOVERY_FILE);
+fn work(dir: &Path, file: &Path, jobs: &mpsc::Receiver<Job>, errors: &mpsc::Sender<String>) {
     while let Ok(job) = jobs.recv() {
         match job {
             Job::Write { text } => {
                 let result = std::fs::create_dir_all(dir)
                     .map_err(|e| format!("{}: {e}; check that the data folder can be created", dir.display()))
-                    .and_then(|()| save_atomic(&file, &text).map_err(|e| e.to_string()));
+                    .and_then(|()| save_atomic(file, &text).map_err(|e| e.to_string()));
                 if let Err(e) = result {
                     let _ = errors.send(e);
                 }
             }
             Job::Remove => {
-                let _ = std::fs::remove_file(&file);
-                let _ = std::fs::remove_file(backup_path(&file));
+                let _ = std::fs::remove_file(file);
+                let _ = std::fs::remove_file(backup_path(file));
             }
             Job::Flush(done) => {
                 let _ = done.send(());
@@ -327,7 +417,10 @@ pub fn offer_modal(app: &mut RigApp, ctx: &egui::Context) {
         if let Err(e) = &offer.project {
             ui.colored_label(
                 ui.visuals().error_fg_color,
-                format!("The copy cannot be read: {e}. Discard keeps it as {DISCARDED_FILE} for a look by hand."),
+                format!(
+                    "The copy cannot be read: {e}. Discard keeps it as {} for a look by hand.",
+                    discarded_path(&offer.file).display()
+                ),
             );
         }
         ui.add_space(8.0);
@@ -342,7 +435,10 @@ pub fn offer_modal(app: &mut RigApp, ctx: &egui::Context) {
             }
             if ui
                 .button("Discard")
-                .on_hover_text(format!("Keep the current project; the copy is kept once as {DISCARDED_FILE}"))
+                .on_hover_text(format!(
+                    "Keep the current project; the copy is kept once as {}",
+                    discarded_path(&offer.file).display()
+                ))
                 .clicked()
             {
                 answer = Some(false);
@@ -387,10 +483,11 @@ pub fn recover(app: &mut RigApp) {
     ));
 }
 
-/// Sets the offered copy aside as [`DISCARDED_FILE`] and keeps the current project.
+/// Sets the offered copy aside (as [`DISCARDED_FILE`] for the first slot) and keeps the
+/// current project.
 pub fn discard(app: &mut RigApp) {
     let Some(offer) = app.recovery.offer.take() else { return };
-    let aside = offer.file.with_file_name(DISCARDED_FILE);
+    let aside = discarded_path(&offer.file);
     match std::fs::rename(&offer.file, &aside) {
         Ok(()) => {
             let _ = std::fs::remove_file(backup_path(&offer.file));

@@ -8,12 +8,13 @@
 use eframe::egui::{self, DragValue, RichText};
 use egui_plot::{Line, Plot, PlotPoints, Points};
 use rigwright_core::Project;
+use rigwright_core::Watch;
 use rigwright_core::element::MemberClass;
 use rigwright_core::model::MemberDocKind;
 use rigwright_core::sizing::autosize::{assign_part, assign_spring};
 use rigwright_core::sizing::{
     Catalogue, CheckReport, DesignFactors, MemberDesign, Output, Param, SpringDesign, SpringEnds, SpringMaterial, SpringRequirement,
-    Status, StrutSection, SweepResult, auto_size, check_project, design_spring, project_catalogue, sweep,
+    Status, StrutSection, SweepResult, auto_size, check_project_watched, design_spring, project_catalogue, sweep_watched,
 };
 
 use super::background::Background;
@@ -31,6 +32,8 @@ pub struct SizingState {
     report: Option<(u64, Result<CheckReport, String>)>,
     /// Checks of a large rig running on another thread, keyed by document revision.
     job: Option<Background<u64, Result<CheckReport, String>>>,
+    /// The document revision whose checks the user cancelled (not restarted until asked).
+    cancelled: Option<u64>,
     /// The spring designer, when open.
     pub designer: Option<Designer>,
     pub sweep: SweepPanel,
@@ -50,6 +53,16 @@ impl SizingState {
     pub fn checking(&self) -> bool {
         self.job.is_some()
     }
+
+    /// Whether a Sweep is running on another thread.
+    pub fn sweeping(&self) -> bool {
+        self.sweep.job.is_some()
+    }
+
+    /// The last Sweep's result, if one finished.
+    pub fn sweep_result(&self) -> Option<&Result<SweepResult, String>> {
+        self.sweep.result.as_ref()
+    }
 }
 
 /// The spring designer window.
@@ -59,6 +72,9 @@ pub struct Designer {
     member_id: String,
     req: SpringRequirement,
 }
+
+/// A Sweep running on another thread, keyed by document revision.
+type SweepJob = Background<u64, Result<SweepResult, String>>;
 
 /// The Sweep readout's inputs and last result.
 pub struct SweepPanel {
@@ -71,6 +87,9 @@ pub struct SweepPanel {
     /// Which output the plot shows.
     shown: usize,
     result: Option<Result<SweepResult, String>>,
+    /// A Sweep of a large rig running on another thread, keyed by document revision, and the
+    /// number of values it takes.
+    job: Option<(SweepJob, usize)>,
 }
 
 impl Default for SweepPanel {
@@ -83,6 +102,7 @@ impl Default for SweepPanel {
             outputs: "peak-tension\npeak-utilisation\nlowest-frequency".into(),
             shown: 0,
             result: None,
+            job: None,
         }
     }
 }
@@ -121,11 +141,24 @@ pub fn checks_ui(app: &mut RigApp, ui: &mut egui::Ui) {
         ui.label(RichText::new("The rig as edited cannot be solved; fix the problems listed in Properties.").color(pal::ALARM));
         return;
     }
+    if stale && app.sizing.cancelled == Some(revision) {
+        ui.horizontal(|ui| {
+            ui.label("The checks of this large rig were cancelled.");
+            if ui
+                .button("Check now")
+                .on_hover_text("Solve every load case and check every member")
+                .clicked()
+            {
+                app.sizing.cancelled = None;
+            }
+        });
+        return;
+    }
     if stale {
         let project = app.doc.project.clone();
-        let run = move || check_project(&project, &catalogue(&project)).map_err(|e| e.to_string());
+        let run = move |watch: Watch| check_project_watched(&project, &catalogue(&project), &watch).map_err(|e| e.to_string());
         if app.doc.project.nodes.len() <= AUTO_CHECK_NODES {
-            app.sizing.report = Some((revision, run()));
+            app.sizing.report = Some((revision, run(Watch::new())));
             app.sizing.job = None;
         } else {
             if app.sizing.job.as_ref().is_none_or(|j| j.key != revision) {
@@ -138,10 +171,20 @@ pub fn checks_ui(app: &mut RigApp, ui: &mut egui::Ui) {
                     app.sizing.job = None;
                 }
                 None => {
-                    ui.label(format!(
-                        "Checking every member in every load case of this large rig… {:.1} s (the window stays usable)",
-                        job.started.elapsed().as_secs_f64()
-                    ));
+                    let mut cancel = false;
+                    ui.horizontal(|ui| {
+                        ui.label(format!(
+                            "Checking every member in every load case of this large rig… {:.1} s, {} of {} cases solved (the window stays usable)",
+                            job.started.elapsed().as_secs_f64(),
+                            job.steps_done(),
+                            app.doc.project.cases.len()
+                        ));
+                        cancel = ui.button("Cancel").on_hover_text("Stop the checks").clicked();
+                    });
+                    if cancel {
+                        app.sizing.job = None;
+                        app.sizing.cancelled = Some(revision);
+                    }
                     ui.ctx().request_repaint_after(std::time::Duration::from_millis(100));
                     return;
                 }
@@ -842,24 +885,66 @@ pub fn sweep_ui(app: &mut RigApp, ui: &mut egui::Ui) {
         ui.vertical(|ui| sweep_result(app, ui));
     });
     if run {
-        let s = &app.sizing.sweep;
-        let outputs: Result<Vec<Output>, String> = s.outputs.lines().map(str::trim).filter(|l| !l.is_empty()).map(str::parse).collect();
-        let result = s
-            .param
-            .parse::<Param>()
-            .and_then(|param| Ok((param, outputs?)))
-            .and_then(|(param, outputs)| {
-                let p = &app.doc.project;
-                let case = app.doc.model.cases.get(app.case).map(|c| c.name.clone());
-                sweep(p, &catalogue(p), case.as_deref(), &param, (s.from, s.to, s.steps), &outputs).map_err(|e| e.to_string())
-            });
-        app.sizing.sweep.result = Some(result);
+        start_sweep(app);
+    }
+    let revision = app.doc.revision;
+    if let Some((job, _)) = &app.sizing.sweep.job {
+        if job.key != revision {
+            // Edited meanwhile: the Sweep belonged to the rig as it was.
+            app.sizing.sweep.job = None;
+        } else if let Some(r) = job.poll() {
+            app.sizing.sweep.result = Some(r.and_then(|r| r));
+            app.sizing.sweep.shown = 0;
+            app.sizing.sweep.job = None;
+        } else {
+            ui.ctx().request_repaint_after(std::time::Duration::from_millis(100));
+        }
+    }
+}
+
+/// Runs the Sweep as set up in the panel: at once on a small rig, on another thread on a
+/// large one.
+fn start_sweep(app: &mut RigApp) {
+    let s = &app.sizing.sweep;
+    let outputs: Result<Vec<Output>, String> = s.outputs.lines().map(str::trim).filter(|l| !l.is_empty()).map(str::parse).collect();
+    let prepared = s.param.parse::<Param>().and_then(|param| Ok((param, outputs?)));
+    let (param, outputs) = match prepared {
+        Ok(v) => v,
+        Err(e) => {
+            app.sizing.sweep.result = Some(Err(e));
+            app.sizing.sweep.job = None;
+            return;
+        }
+    };
+    let project = app.doc.project.clone();
+    let parts = catalogue(&project);
+    let case = app.doc.model.cases.get(app.case).map(|c| c.name.clone());
+    let range = (s.from, s.to, s.steps);
+    let work =
+        move |watch: Watch| sweep_watched(&project, &parts, case.as_deref(), &param, range, &outputs, &watch).map_err(|e| e.to_string());
+    if app.doc.project.nodes.len() <= AUTO_CHECK_NODES {
+        app.sizing.sweep.result = Some(work(Watch::new()));
         app.sizing.sweep.shown = 0;
+        app.sizing.sweep.job = None;
+    } else {
+        app.sizing.sweep.result = None;
+        app.sizing.sweep.job = Some((Background::spawn(app.doc.revision, work), range.2));
     }
 }
 
 fn sweep_result(app: &mut RigApp, ui: &mut egui::Ui) {
     let s = &mut app.sizing.sweep;
+    if let Some((job, steps)) = &s.job {
+        ui.label(format!(
+            "Sweeping this large rig… {} of {steps} values done, {:.1} s (the window stays usable)",
+            job.steps_done(),
+            job.started.elapsed().as_secs_f64()
+        ));
+        if ui.button("Cancel").on_hover_text("Stop the Sweep").clicked() {
+            s.job = None;
+        }
+        return;
+    }
     let Some(result) = &s.result else {
         ui.label("Choose what to vary and the outputs, then Run Sweep. Values at which the rig has no stable equilibrium are left out and say why.");
         return;

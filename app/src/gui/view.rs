@@ -551,20 +551,63 @@ fn draw_answer(app: &RigApp, a: &Answer<'_>, painter: &egui::Painter, units: Uni
     draw_pull(app, a, painter, units, &mut texts);
 
     // Labels that would land on an earlier one (members seen edge-on in a projection) are
-    // stacked below it, so none hides another.
+    // stacked below it, so none hides another; one with no free place nearby is left out (a
+    // dense rig at this zoom) and the view says how many, the Readouts list every value.
     let inside = view.rect.shrink(30.0);
-    let mut placed: Vec<Rect> = Vec::new();
+    let mut placed = LabelGrid::default();
+    let mut hidden = 0usize;
     for (p, t, c) in texts {
         let mut at = p.clamp(inside.min, inside.max);
+        let mut free = false;
         for _ in 0..6 {
             let r = Rect::from_center_size(at, vec2(7.0 * t.chars().count() as f32, 14.0));
-            if !placed.iter().any(|q| q.intersects(r)) {
-                placed.push(r);
+            if placed.insert_if_free(r) {
+                free = true;
                 break;
             }
             at.y += 15.0;
         }
-        label(painter, at, &t, c);
+        if free {
+            label(painter, at, &t, c);
+        } else {
+            hidden += 1;
+        }
+    }
+    if hidden > 0 {
+        let text = format!("{hidden} labels left out where they would overlap: zoom in, or read the values in the Readouts");
+        let galley = painter.layout_no_wrap(text, FontId::proportional(12.0), pal::INK);
+        let r = Align2::LEFT_TOP.anchor_size(view.rect.left_top() + vec2(10.0, 28.0), galley.size());
+        painter.rect_filled(r.expand(3.0), 3.0, pal::PAPER);
+        painter.galley(r.min, galley, pal::INK);
+    }
+}
+
+/// Rectangles of the labels placed so far, bucketed by screen cell so that testing a new
+/// one costs the same however many there are (a large rig has thousands).
+#[derive(Default)]
+struct LabelGrid {
+    cells: std::collections::HashMap<(i32, i32), Vec<Rect>>,
+}
+
+impl LabelGrid {
+    const CELL: f32 = 64.0;
+
+    fn cells_of(r: Rect) -> impl Iterator<Item = (i32, i32)> {
+        let (x0, x1) = ((r.min.x / Self::CELL).floor() as i32, (r.max.x / Self::CELL).floor() as i32);
+        let (y0, y1) = ((r.min.y / Self::CELL).floor() as i32, (r.max.y / Self::CELL).floor() as i32);
+        (x0..=x1).flat_map(move |x| (y0..=y1).map(move |y| (x, y)))
+    }
+
+    /// Places `r` and returns true when it overlaps no placed rectangle.
+    fn insert_if_free(&mut self, r: Rect) -> bool {
+        let taken = Self::cells_of(r).any(|c| self.cells.get(&c).is_some_and(|v| v.iter().any(|q| q.intersects(r))));
+        if taken {
+            return false;
+        }
+        for c in Self::cells_of(r) {
+            self.cells.entry(c).or_default().push(r);
+        }
+        true
     }
 }
 
@@ -1129,5 +1172,21 @@ fn interact(app: &mut RigApp, ui: &egui::Ui, response: &egui::Response) {
             });
             app.selection = Selection::Load(index);
         }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_label_is_placed_only_where_it_overlaps_none_placed_before() {
+        let mut grid = LabelGrid::default();
+        let at = |x: f32, y: f32| Rect::from_min_size(pos2(x, y), vec2(50.0, 14.0));
+        assert!(grid.insert_if_free(at(60.0, 60.0)), "straddles four cells");
+        assert!(!grid.insert_if_free(at(100.0, 70.0)), "overlaps it from another cell");
+        assert!(grid.insert_if_free(at(111.0, 60.0)), "just clear to the right");
+        assert!(grid.insert_if_free(at(60.0, 75.0)), "just clear below");
+        assert!(!grid.insert_if_free(at(-10.0, 61.0).translate(vec2(75.0, 0.0))), "inside the first");
     }
 }

@@ -10,6 +10,6 @@ mod motion;
 mod pluck;
 pub mod spectrum;
 
-pub use modes::{Mode, ModeError, Modes, modes};
+pub use modes::{Mode, ModeError, Modes, modes, modes_watched};
 pub use motion::{Energy, Motion, MotionError, MotionSettings, Scheme, rayleigh_coefficients};
 pub use pluck::{BackbonePoint, PluckError, PluckSpec, Record, backbone, pulled_positions, record};

@@ -19,6 +19,7 @@ use serde::Serialize;
 use crate::model::Vec3;
 use crate::solve::system::{Factor, Part};
 use crate::solve::{Equilibrium, Statics};
+use crate::watch::Watch;
 
 /// Largest number of massive DOFs solved with the dense eigensolver.
 const DENSE_LIMIT: usize = 600;
@@ -59,6 +60,9 @@ pub enum ModeError {
     /// No node has mass in a free direction.
     #[error("no mass can move: give the free nodes a mass (kg)")]
     NoMass,
+    /// The computation was stopped through its [`Watch`].
+    #[error("the mode computation was stopped")]
+    Stopped,
     /// The iteration did not converge.
     #[error("the eigenvalue iteration did not converge for {0} mode(s); ask for fewer modes")]
     NotConverged(usize),
@@ -67,6 +71,12 @@ pub enum ModeError {
 /// The lowest `count` modes about equilibrium `eq` (found with `statics`, without a held
 /// node).
 pub fn modes(statics: &Statics, eq: &Equilibrium, count: usize) -> Result<Modes, ModeError> {
+    modes_watched(statics, eq, count, &Watch::new())
+}
+
+/// [`modes`] that stops early with [`ModeError::Stopped`] when `watch` is stopped (checked
+/// before the factorisation and between Lanczos blocks) and counts Lanczos blocks on it.
+pub fn modes_watched(statics: &Statics, eq: &Equilibrium, count: usize, watch: &Watch) -> Result<Modes, ModeError> {
     if !eq.stability.is_stable() {
         return Err(ModeError::NotStable(eq.stability.describe()));
     }
@@ -74,6 +84,9 @@ pub fn modes(statics: &Statics, eq: &Equilibrium, count: usize) -> Result<Modes,
     let sys = statics.system();
     let pos = eq.positions();
     let k = sys.assemble(model, &pos, Part::Total);
+    if watch.stopped() {
+        return Err(ModeError::Stopped);
+    }
     let factor = sys
         .factor(&k, 0.0)
         .ok_or_else(|| ModeError::NotStable("tangent stiffness is not positive definite".into()))?;
@@ -107,7 +120,7 @@ pub fn modes(statics: &Statics, eq: &Equilibrium, count: usize) -> Result<Modes,
     let pairs = if massive.len() <= DENSE_LIMIT {
         dense_pairs(&apply, massive.len(), count)
     } else {
-        lanczos_pairs(&apply, massive.len(), count)?
+        lanczos_pairs(&apply, massive.len(), count, watch)?
     };
     let pairs: Vec<(f64, Vec<f64>)> = pairs.into_iter().filter(|(mu, _)| *mu > 0.0).collect();
     let shapes = shapes_from(&factor, &massive, &sqrt_m, n, &pairs);
@@ -182,7 +195,12 @@ fn dense_pairs(apply: &dyn Fn(&DMatrix<f64>) -> DMatrix<f64>, m: usize, count: u
 /// The Krylov basis `V` grows one block at a time; from a minimum size on, the Ritz pairs are
 /// checked every other block and the iteration stops as soon as the wanted ones have
 /// converged: ‖B x − θ x‖ = ‖β_last s_last‖ ≤ 1e-7 θ_max (Golub & Van Loan §10.3); the eigenvalue error is of the order of the residual squared over the gap, far below what a frequency needs.
-fn lanczos_pairs(apply: &dyn Fn(&DMatrix<f64>) -> DMatrix<f64>, m: usize, count: usize) -> Result<Vec<(f64, Vec<f64>)>, ModeError> {
+fn lanczos_pairs(
+    apply: &dyn Fn(&DMatrix<f64>) -> DMatrix<f64>,
+    m: usize,
+    count: usize,
+    watch: &Watch,
+) -> Result<Vec<(f64, Vec<f64>)>, ModeError> {
     let b = BLOCK.min(m);
     let max_blocks = (m / b).clamp(1, 400);
     let min_blocks = ((count + 8) / b + 2).min(max_blocks);
@@ -195,6 +213,10 @@ fn lanczos_pairs(apply: &dyn Fn(&DMatrix<f64>) -> DMatrix<f64>, m: usize, count:
     let mut beta_prev: Option<DMatrix<f64>> = None;
     let mut unconverged = count;
     for k in 0..max_blocks {
+        if watch.stopped() {
+            return Err(ModeError::Stopped);
+        }
+        watch.advance();
         let q = v.columns(k * b, b).into_owned();
         let mut w = apply(&q);
         if let Some(bp) = &beta_prev {

@@ -11,6 +11,7 @@ use super::design::{DesignFactors, MemberDesign};
 use crate::element::{MemberClass, MemberKind};
 use crate::model::{Model, Project, ProjectError};
 use crate::solve::{Equilibrium, Statics};
+use crate::watch::Watch;
 
 /// A utilisation may exceed 1 by this much and still pass: the solver's forces are exact to
 /// its residual tolerance (1e-10 relative), not to the last bit.
@@ -140,11 +141,19 @@ impl CheckReport {
 
 /// Solves every load case from the unloaded state.
 pub fn solve_cases(model: &Model) -> Vec<CaseOutcome> {
-    let statics = Statics::new(model);
+    solve_cases_watched(model, &Watch::new())
+}
+
+/// [`solve_cases`], counting finished cases on `watch`; once it is stopped the remaining
+/// cases are not solved and say so.
+pub fn solve_cases_watched(model: &Model, watch: &Watch) -> Vec<CaseOutcome> {
+    let statics = Statics::new(model).cancel_with(watch.flag());
     (0..model.cases.len())
         .map(|i| {
             let name = model.cases[i].name.clone();
-            match statics.solve(i, None) {
+            let solved = statics.solve(i, None);
+            watch.advance();
+            match solved {
                 Ok(eq) if eq.stability.is_stable() => CaseOutcome {
                     name,
                     equilibrium: Some(eq),
@@ -167,8 +176,14 @@ pub fn solve_cases(model: &Model) -> Vec<CaseOutcome> {
 
 /// Validates, solves every case and checks every member.
 pub fn check_project(project: &Project, catalogue: &Catalogue) -> Result<CheckReport, ProjectError> {
+    check_project_watched(project, catalogue, &Watch::new())
+}
+
+/// [`check_project`] that counts solved load cases on `watch` and stops solving once it is
+/// stopped (a stopped check's report is incomplete: it names the unsolved cases).
+pub fn check_project_watched(project: &Project, catalogue: &Catalogue, watch: &Watch) -> Result<CheckReport, ProjectError> {
     let model = project.validate()?;
-    let cases = solve_cases(&model);
+    let cases = solve_cases_watched(&model, watch);
     Ok(check(project, &model, catalogue, cases))
 }
 

@@ -16,8 +16,11 @@ pub mod sweep;
 
 pub use autosize::{AutoSize, auto_size};
 pub use catalogue::{Catalogue, Part};
-pub use check::{CaseOutcome, CheckLine, CheckReport, MemberCheck, Status, check, check_project, project_catalogue, solve_cases};
+pub use check::{
+    CaseOutcome, CheckLine, CheckReport, MemberCheck, Status, check, check_project, check_project_watched, project_catalogue, solve_cases,
+    solve_cases_watched,
+};
 pub use design::{DesignFactors, MemberDesign, SizingDoc, SpringDesign, SpringEnds, StrutSection};
 pub use rope::{Construction, Core, RopeSpec, minimum_breaking_force_kn};
 pub use spring::{SpringMaterial, SpringProperties, SpringReport, SpringRequirement, design_spring, helical_spring};
-pub use sweep::{Output, Param, SweepResult, sweep};
+pub use sweep::{Output, Param, SweepResult, sweep, sweep_watched};

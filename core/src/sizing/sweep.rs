@@ -9,9 +9,10 @@ use serde::Serialize;
 
 use super::catalogue::Catalogue;
 use super::check::{CaseOutcome, check};
-use crate::dynamics::modes;
+use crate::dynamics::modes_watched;
 use crate::model::{Axis, CaseDoc, LoadDoc, MemberDocKind, Project, ProjectError, Rest, Vec3};
 use crate::solve::Statics;
+use crate::watch::Watch;
 
 /// The quantity a Sweep varies. Text form in brackets, as typed on the command line.
 #[derive(Debug, Clone, PartialEq)]
@@ -292,8 +293,22 @@ pub fn sweep(
     catalogue: &Catalogue,
     case: Option<&str>,
     param: &Param,
+    range: (f64, f64, usize),
+    outputs: &[Output],
+) -> Result<SweepResult, ProjectError> {
+    sweep_watched(project, catalogue, case, param, range, outputs, &Watch::new())
+}
+
+/// [`sweep`] that counts finished values on `watch` and, once it is stopped, returns the
+/// values finished so far (fewer rows than asked for).
+pub fn sweep_watched(
+    project: &Project,
+    catalogue: &Catalogue,
+    case: Option<&str>,
+    param: &Param,
     (from, to, steps): (f64, f64, usize),
     outputs: &[Output],
+    watch: &Watch,
 ) -> Result<SweepResult, ProjectError> {
     let base = project.validate()?;
     let case_index = match case {
@@ -325,6 +340,12 @@ pub fn sweep(
     };
     let mut warm: Option<Vec<Vec3>> = None;
     for k in 0..steps {
+        if watch.stopped() {
+            break;
+        }
+        if k > 0 {
+            watch.advance();
+        }
         let value = from + (to - from) * k as f64 / (steps - 1) as f64;
         result.values.push(value);
         let mut p = project.clone();
@@ -337,7 +358,7 @@ pub fn sweep(
                 continue;
             }
         };
-        let statics = Statics::new(&model);
+        let statics = Statics::new(&model).cancel_with(watch.flag());
         let eq = match statics.solve(case_index, warm.as_deref()) {
             Ok(eq) if eq.stability.is_stable() => eq,
             Ok(eq) => {
@@ -355,7 +376,7 @@ pub fn sweep(
         let mut row = Vec::with_capacity(outputs.len());
         for o in outputs {
             let v: Result<f64, String> = match o {
-                Output::LowestFrequency => modes(&statics, &eq, 1)
+                Output::LowestFrequency => modes_watched(&statics, &eq, 1, watch)
                     .map_err(|e| e.to_string())
                     .and_then(|m| m.modes.first().map(|m| m.frequency_hz).ok_or_else(|| "no mode".to_string())),
                 Output::PeakTension => Ok(eq.members.iter().map(|m| m.force).fold(0.0, f64::max)),
@@ -421,5 +442,6 @@ pub fn sweep(
         result.rows.push(row);
         result.notes.push(note);
     }
+    watch.advance();
     Ok(result)
 }
