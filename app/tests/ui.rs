@@ -546,6 +546,42 @@ fn long_computations_of_a_large_rig_can_be_cancelled_and_started_again() {
 }
 
 #[test]
+fn auto_size_of_a_large_rig_runs_beside_the_window_and_cancel_changes_nothing() {
+    let (mut h, path) = large_net("autosize");
+    h.get_by_label("Checks").click();
+    h.step();
+    step_until(&mut h, |app| app.sizing.report().is_some());
+    h.run_steps(2);
+    let before = h.state().doc.project.clone();
+    h.get_by_role_and_label(egui::accesskit::Role::Button, "Auto-size cables").click();
+    h.step();
+    assert!(h.state().task.is_some(), "auto-size of a 480-node rig runs on another thread");
+    h.step();
+    h.get_by_role_and_label(egui::accesskit::Role::Button, "Cancel").click();
+    h.step();
+    assert!(h.state().task.is_none());
+    assert_eq!(h.state().doc.project, before, "a cancelled auto-size changes nothing");
+    assert!(h.state().message.as_ref().is_some_and(|(m, _)| m.contains("cancelled")));
+
+    h.get_by_role_and_label(egui::accesskit::Role::Button, "Auto-size cables").click();
+    h.step();
+    step_until(&mut h, |app| app.task.is_none());
+    h.run_steps(2);
+    let app = h.state();
+    let (msg, _) = app.message.as_ref().expect("auto-size reports");
+    assert!(msg.starts_with("Auto-size:"), "{msg}");
+    assert!(
+        app.doc
+            .project
+            .members
+            .iter()
+            .all(|m| m.design.as_ref().is_some_and(|d| d.part.is_some())),
+        "every cable got a part: {msg}"
+    );
+    std::fs::remove_file(path).ok();
+}
+
+#[test]
 fn title_block_and_marked_nodes_edited_in_the_app_reach_the_sheet() {
     let mut h = harness();
     // The project's Sheet title block, through its text field.

@@ -34,8 +34,16 @@ fn stem(app: &RigApp) -> String {
     if t.trim_matches('-').is_empty() { "rig".into() } else { t }
 }
 
-/// The sheet content for the open document and its current load case.
-pub fn build_sheet(app: &RigApp) -> Result<Sheet, String> {
+/// What the Sheet and the exports are made from: the project, the bytes its hash covers and
+/// the options; taken on the window's thread, cheap.
+pub struct SheetInputs {
+    project: rigwright_core::Project,
+    bytes: Vec<u8>,
+    options: SheetOptions,
+}
+
+/// The inputs of the sheet for the open document and its current load case.
+pub fn sheet_inputs(app: &RigApp) -> SheetInputs {
     // The bytes on disk when they are what is shown, else the text as it would be saved.
     let saved = match (&app.doc.path, app.doc.dirty) {
         (Some(p), false) => std::fs::read(p).ok(),
@@ -55,29 +63,44 @@ pub fn build_sheet(app: &RigApp) -> Result<Sheet, String> {
             .map(|n| n.to_string_lossy().into_owned()),
         unsaved,
     };
-    Sheet::build(&app.doc.project, &bytes, &options)
+    SheetInputs {
+        project: app.doc.project.clone(),
+        bytes,
+        options,
+    }
+}
+
+/// The sheet content for the open document and its current load case.
+pub fn build_sheet(app: &RigApp) -> Result<Sheet, String> {
+    let inputs = sheet_inputs(app);
+    Sheet::build(&inputs.project, &inputs.bytes, &inputs.options)
 }
 
 fn save_dialog(name: String, filter: &str, ext: &str) -> Option<PathBuf> {
     rfd::FileDialog::new().add_filter(filter, &[ext]).set_file_name(name).save_file()
 }
 
-/// Writes `kind` for the open document to `path` (for the CSV, `path` is the members file;
-/// the nodes file goes beside it). Returns what was written.
-pub fn write(app: &RigApp, kind: ExportKind, path: &Path) -> Result<String, String> {
-    let sheet = build_sheet(app)?;
-    let put = |p: &Path, bytes: &[u8]| std::fs::write(p, bytes).map_err(|e| format!("could not write {}: {e}", p.display()));
+/// Files to write (path, bytes), what to say once they are written, and whether that is a
+/// warning (something asked for could not be made).
+type Output = (Vec<(PathBuf, Vec<u8>)>, String, bool);
+
+/// Builds the sheet and renders `kind` for writing to `path` (for the CSV, `path` is the
+/// members file; the nodes file goes beside it). The slow part, safe on any thread.
+fn render(inputs: &SheetInputs, kind: ExportKind, path: &Path) -> Result<Output, String> {
+    let sheet = Sheet::build(&inputs.project, &inputs.bytes, &inputs.options)?;
     match kind {
-        ExportKind::Sheet(paper) => {
-            put(path, &sheet.to_pdf(paper)?)?;
-            Ok(format!("Sheet written to {} ({})", path.display(), sheet.verdict()))
-        }
-        ExportKind::Json => {
-            put(path, format!("{}\n", export::result_json(&sheet)).as_bytes())?;
-            Ok(format!("Result written to {}", path.display()))
-        }
+        ExportKind::Sheet(paper) => Ok((
+            vec![(path.to_path_buf(), sheet.to_pdf(paper)?)],
+            format!("Sheet written to {} ({})", path.display(), sheet.verdict()),
+            false,
+        )),
+        ExportKind::Json => Ok((
+            vec![(path.to_path_buf(), format!("{}\n", export::result_json(&sheet)).into_bytes())],
+            format!("Result written to {}", path.display()),
+            false,
+        )),
         ExportKind::Csv => {
-            put(path, export::members_csv(&sheet).as_bytes())?;
+            let members = (path.to_path_buf(), export::members_csv(&sheet).into_bytes());
             let name = path.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
             let nodes_name = match name.strip_suffix("-members.csv") {
                 Some(s) => format!("{s}-nodes.csv"),
@@ -85,21 +108,45 @@ pub fn write(app: &RigApp, kind: ExportKind, path: &Path) -> Result<String, Stri
             };
             let nodes = path.with_file_name(nodes_name);
             match export::nodes_csv(&sheet) {
-                Some(csv) => {
-                    put(&nodes, csv.as_bytes())?;
-                    Ok(format!("Members written to {}, nodes to {}", path.display(), nodes.display()))
-                }
-                None => Err(format!(
-                    "Members written to {}; no nodes file: load case `{}` has no equilibrium",
-                    path.display(),
-                    sheet.case_name()
+                Some(csv) => Ok((
+                    vec![members, (nodes.clone(), csv.into_bytes())],
+                    format!("Members written to {}, nodes to {}", path.display(), nodes.display()),
+                    false,
+                )),
+                None => Ok((
+                    vec![members],
+                    format!(
+                        "Members written to {}; no nodes file: load case `{}` has no equilibrium",
+                        path.display(),
+                        sheet.case_name()
+                    ),
+                    true,
                 )),
             }
         }
     }
 }
 
-/// Asks where to write, then writes; the outcome goes to the status bar.
+fn put(p: &Path, bytes: &[u8]) -> Result<(), String> {
+    std::fs::write(p, bytes).map_err(|e| format!("could not write {}: {e}", p.display()))
+}
+
+/// Writes rendered files in order; the message when all are written (an error when it is a
+/// warning).
+fn put_all((files, done, warning): Output) -> Result<String, String> {
+    for (p, bytes) in &files {
+        put(p, bytes)?;
+    }
+    if warning { Err(done) } else { Ok(done) }
+}
+
+/// Writes `kind` for the open document to `path`, now. Returns what was written.
+pub fn write(app: &RigApp, kind: ExportKind, path: &Path) -> Result<String, String> {
+    render(&sheet_inputs(app), kind, path).and_then(put_all)
+}
+
+/// Asks where to write, then writes (beside the window on a large rig); the outcome goes to
+/// the status bar. Cancelling a long one writes nothing.
 pub fn run(app: &mut RigApp, kind: ExportKind) {
     let stem = stem(app);
     let picked = match kind {
@@ -108,8 +155,22 @@ pub fn run(app: &mut RigApp, kind: ExportKind) {
         ExportKind::Json => save_dialog(format!("{stem}-result.json"), "JSON", "json"),
     };
     let Some(path) = picked else { return };
-    app.message = Some(match write(app, kind, &path) {
-        Ok(text) => (text, false),
-        Err(e) => (format!("Nothing exported: {e}"), true),
+    let inputs = sheet_inputs(app);
+    let what = match kind {
+        ExportKind::Sheet(_) => "Making the Sheet",
+        ExportKind::Csv => "Exporting CSV",
+        ExportKind::Json => "Exporting JSON",
+    };
+    super::task::start(app, what, move |_watch| {
+        let rendered = render(&inputs, kind, &path);
+        Box::new(move |app: &mut RigApp| {
+            app.message = Some(match rendered {
+                Err(e) => (format!("Nothing exported: {e}"), true),
+                Ok(out) => match put_all(out) {
+                    Ok(text) => (text, false),
+                    Err(e) => (e, true),
+                },
+            });
+        })
     });
 }

@@ -223,6 +223,7 @@ pub fn status_bar(app: &mut RigApp, ui: &mut egui::Ui) {
             ui.label("solving…");
         }
         ui.separator();
+        super::task::status(app, ui);
         if let Some((text, error)) = &app.message {
             let t = RichText::new(text);
             ui.label(if *error { t.color(pal::ALARM) } else { t });

@@ -17,6 +17,7 @@ pub mod recovery;
 pub mod samples;
 pub mod sizing;
 mod solver;
+mod task;
 pub mod units;
 mod view;
 
@@ -262,6 +263,8 @@ pub struct RigApp {
     pub modes_job: Option<pluck::ModesJob>,
     /// A Pluck being prepared on another thread (large rigs).
     pub pluck_job: Option<pluck::PluckJob>,
+    /// Auto-size or an export running on another thread (large rigs).
+    pub task: Option<task::Task>,
     /// Start a Pluck when a pulled node is let go.
     pub pluck_on_release: bool,
     /// Checks, Sweep and the spring designer.
@@ -335,6 +338,7 @@ impl RigApp {
             modes: None,
             modes_job: None,
             pluck_job: None,
+            task: None,
             pluck_on_release: true,
             message: None,
             show_about: false,
@@ -899,6 +903,9 @@ impl eframe::App for RigApp {
         let wall = f64::from(ctx.input(|i| i.stable_dt));
         if pluck::tick(self, wall) {
             ctx.request_repaint();
+        }
+        if task::poll(self) {
+            ctx.request_repaint_after(std::time::Duration::from_millis(100));
         }
         let dropped: Vec<PathBuf> = ctx.input(|i| {
             i.raw

@@ -13,8 +13,9 @@ use rigwright_core::element::MemberClass;
 use rigwright_core::model::MemberDocKind;
 use rigwright_core::sizing::autosize::{assign_part, assign_spring};
 use rigwright_core::sizing::{
-    Catalogue, CheckReport, DesignFactors, MemberDesign, Output, Param, SpringDesign, SpringEnds, SpringMaterial, SpringRequirement,
-    Status, StrutSection, SweepResult, auto_size, check_project_watched, design_spring, project_catalogue, sweep_watched,
+    AutoSize, Catalogue, CheckReport, DesignFactors, MemberDesign, Output, Param, SpringDesign, SpringEnds, SpringMaterial,
+    SpringRequirement, Status, StrutSection, SweepResult, auto_size_watched, check_project_watched, design_spring, project_catalogue,
+    sweep_watched,
 };
 
 use super::background::Background;
@@ -392,7 +393,24 @@ fn autosize(app: &mut RigApp) {
         app.message = Some((format!("Auto-size: no part id contains `{only}`"), true));
         return;
     }
-    match auto_size(&p, &parts, &[], 20) {
+    let revision = app.doc.revision;
+    super::task::start(app, "Auto-sizing the cables", move |watch| {
+        let result = auto_size_watched(&p, &parts, &[], 20, &watch);
+        Box::new(move |app: &mut RigApp| apply_autosize(app, revision, result))
+    });
+}
+
+/// Takes an auto-size result into the document as one undo step, unless the rig was edited
+/// while it ran.
+fn apply_autosize(app: &mut RigApp, revision: u64, result: Result<AutoSize, rigwright_core::ProjectError>) {
+    if app.doc.revision != revision {
+        app.message = Some((
+            "Auto-size: the rig was edited while it ran, so its choice was not applied; run it again".into(),
+            true,
+        ));
+        return;
+    }
+    match result {
         Ok(a) => {
             let mut msg = format!(
                 "Auto-size: {} round(s), {}; {} cable(s) sized",

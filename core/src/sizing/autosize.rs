@@ -5,9 +5,10 @@
 use serde::Serialize;
 
 use super::catalogue::{Catalogue, Part};
-use super::check::{UTILISATION_TOLERANCE, solve_cases};
+use super::check::{UTILISATION_TOLERANCE, solve_cases_watched};
 use super::design::{MemberDesign, SpringDesign};
 use crate::model::{MemberDocKind, Project, ProjectError, Rest};
+use crate::watch::Watch;
 
 /// Makes cable `member` of the given part: its EA, its weight per length and the part's id.
 pub fn assign_part(project: &mut Project, member: &str, part: &Part) -> Result<(), String> {
@@ -68,6 +69,18 @@ pub struct AutoSize {
 /// case; re-solves with the new parts and repeats until the choice is stable, at most
 /// `max_rounds` times.
 pub fn auto_size(project: &Project, catalogue: &Catalogue, members: &[String], max_rounds: usize) -> Result<AutoSize, ProjectError> {
+    auto_size_watched(project, catalogue, members, max_rounds, &Watch::new())
+}
+
+/// [`auto_size`] that counts rounds on `watch` and, once it is stopped, returns after the
+/// round in progress with the choice so far (not marked converged).
+pub fn auto_size_watched(
+    project: &Project,
+    catalogue: &Catalogue,
+    members: &[String],
+    max_rounds: usize,
+    watch: &Watch,
+) -> Result<AutoSize, ProjectError> {
     let mut p = project.clone();
     let targets: Vec<String> = p
         .members
@@ -97,8 +110,12 @@ pub fn auto_size(project: &Project, catalogue: &Catalogue, members: &[String], m
         failures: Vec::new(),
     };
     for round in 1..=max_rounds.max(1) {
+        if watch.stopped() {
+            break;
+        }
         let model = p.validate()?;
-        let cases = solve_cases(&model);
+        let cases = solve_cases_watched(&model, watch);
+        watch.advance();
         result.iterations = round;
         if let Some(bad) = cases.iter().find(|c| c.error.is_some()) {
             result.failures = vec![(

@@ -14,7 +14,7 @@ pub mod rope;
 pub mod spring;
 pub mod sweep;
 
-pub use autosize::{AutoSize, auto_size};
+pub use autosize::{AutoSize, auto_size, auto_size_watched};
 pub use catalogue::{Catalogue, Part};
 pub use check::{
     CaseOutcome, CheckLine, CheckReport, MemberCheck, Status, check, check_project, check_project_watched, project_catalogue, solve_cases,
