@@ -1,6 +1,7 @@
 //! Times the lowest 10 modes of the 100×100 net, split into factorisation and the rest, in CPU
 //! time of this process (useful when the machine is shared). Run:
-//! `cargo run --release -p rigwright-core --example modes_timing`.
+//! `cargo run --release -p rigwright-core --example modes_timing [-- N [--all]]` (`--all` lists
+//! the 10 frequencies).
 
 use std::time::Instant;
 
@@ -23,14 +24,19 @@ fn main() {
     let eq = statics.solve(0, None).expect("converges");
     let runs = 5;
     let (c0, w0) = (cpu_seconds(), Instant::now());
-    let mut first = 0.0;
+    let mut freqs = Vec::new();
     for _ in 0..runs {
         let ms = modes(&statics, &eq, 10).expect("modes");
-        first = ms.modes[0].frequency_hz;
+        freqs = ms.modes.iter().map(|m| m.frequency_hz).collect();
     }
+    let first = freqs.first().copied().unwrap_or(f64::NAN);
     let (cpu, wall) = ((cpu_seconds() - c0) / runs as f64, w0.elapsed().as_secs_f64() / runs as f64);
     println!(
         "{} DOF: lowest 10 modes {cpu:.3} s CPU, {wall:.3} s wall per run (f1 = {first:.6} Hz)",
         statics.dof_count()
     );
+    if std::env::args().any(|a| a == "--all") {
+        let list: Vec<String> = freqs.iter().map(|f| format!("{f:.9}")).collect();
+        println!("frequencies (Hz): {}", list.join(", "));
+    }
 }
