@@ -5,7 +5,9 @@ use eframe::egui::{self, Pos2};
 use egui_kittest::Harness;
 use egui_kittest::kittest::{NodeT, Queryable};
 use rigwright::RigApp;
-use rigwright::gui::{Command, Quantity, Recovery, Selection, Settings, Units};
+use rigwright::gui::{Command, Quantity, Recovery, Selection, Settings, Units, hold_jobs_spawned_here};
+use std::sync::Arc;
+use std::sync::atomic::{AtomicBool, Ordering};
 
 fn harness() -> Harness<'static, RigApp> {
     Harness::builder()
@@ -466,6 +468,10 @@ fn button(h: &Harness<'static, RigApp>, label: &str) -> bool {
 #[test]
 fn long_computations_of_a_large_rig_can_be_cancelled_and_started_again() {
     let (mut h, path) = large_net("cancel");
+    // Jobs wait at the gate while it is closed, so each Cancel below meets a running job.
+    let gate = Arc::new(AtomicBool::new(true));
+    hold_jobs_spawned_here(Some(gate.clone()));
+    let open = |g: &AtomicBool, v: bool| g.store(!v, Ordering::Relaxed);
 
     // Modes: Cancel, then compute again.
     h.get_by_label("Modes").click();
@@ -480,7 +486,9 @@ fn long_computations_of_a_large_rig_can_be_cancelled_and_started_again() {
     h.step();
     h.step();
     assert!(h.state().modes_job.is_some(), "computing again");
+    open(&gate, true);
     step_until(&mut h, |app| app.modes.as_ref().is_some_and(|m| m.result.is_ok()));
+    open(&gate, false);
 
     // Checks: Cancel, then check now.
     h.get_by_label("Checks").click();
@@ -494,7 +502,9 @@ fn long_computations_of_a_large_rig_can_be_cancelled_and_started_again() {
     h.step();
     h.step();
     assert!(h.state().sizing.checking());
+    open(&gate, true);
     step_until(&mut h, |app| app.sizing.report().is_some());
+    open(&gate, false);
 
     // Sweep: runs beside the window and can be cancelled.
     h.get_by_label("Sweep").click();
@@ -538,10 +548,12 @@ fn long_computations_of_a_large_rig_can_be_cancelled_and_started_again() {
     h.get_by_role_and_label(egui::accesskit::Role::Button, "Cancel").click();
     h.step();
     assert!(h.state().pluck_job.is_none() && h.state().pluck.is_none(), "not started");
+    open(&gate, true);
     h.state_mut().queue(Command::Pluck);
     h.step();
     step_until(&mut h, |app| app.pluck.is_some());
     assert!(h.state().pluck.as_ref().unwrap().failure.is_none());
+    hold_jobs_spawned_here(None);
     std::fs::remove_file(path).ok();
 }
 
@@ -553,6 +565,28 @@ fn auto_size_of_a_large_rig_runs_beside_the_window_and_cancel_changes_nothing() 
     step_until(&mut h, |app| app.sizing.report().is_some());
     h.run_steps(2);
     let before = h.state().doc.project.clone();
+    // The job waits at the gate, so Cancel certainly meets it running.
+    let gate = Arc::new(AtomicBool::new(true));
+    hold_jobs_spawned_here(Some(gate.clone()));
+
+    // An auto-size still running when the file is opened again (a new document with as few
+    // edits) is not applied to it.
+    h.get_by_role_and_label(egui::accesskit::Role::Button, "Auto-size cables").click();
+    h.step();
+    assert!(h.state().task.is_some());
+    h.state_mut().queue(Command::Open(path.clone()));
+    h.step();
+    gate.store(false, Ordering::Relaxed);
+    step_until(&mut h, |app| app.task.is_none());
+    assert_eq!(h.state().doc.project, before, "the reopened document is not auto-sized");
+    assert!(
+        h.state().message.as_ref().is_some_and(|(m, _)| m.contains("edited while it ran")),
+        "{:?}",
+        h.state().message
+    );
+    step_until(&mut h, |app| app.sizing.report().is_some());
+    h.run_steps(2);
+    gate.store(true, Ordering::Relaxed);
     h.get_by_role_and_label(egui::accesskit::Role::Button, "Auto-size cables").click();
     h.step();
     assert!(h.state().task.is_some(), "auto-size of a 480-node rig runs on another thread");
@@ -562,6 +596,8 @@ fn auto_size_of_a_large_rig_runs_beside_the_window_and_cancel_changes_nothing() 
     assert!(h.state().task.is_none());
     assert_eq!(h.state().doc.project, before, "a cancelled auto-size changes nothing");
     assert!(h.state().message.as_ref().is_some_and(|(m, _)| m.contains("cancelled")));
+    gate.store(false, Ordering::Relaxed);
+    hold_jobs_spawned_here(None);
 
     h.get_by_role_and_label(egui::accesskit::Role::Button, "Auto-size cables").click();
     h.step();

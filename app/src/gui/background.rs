@@ -4,10 +4,24 @@
 //! its next check once the [`Background`] is cancelled, replaced or dropped, so an abandoned
 //! computation does not keep a core busy.
 
+use std::cell::RefCell;
+use std::sync::Arc;
+use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::mpsc::{Receiver, TryRecvError, channel};
-use std::time::Instant;
+use std::time::{Duration, Instant};
 
 use rigwright_core::Watch;
+
+thread_local! {
+    static GATE: RefCell<Option<Arc<AtomicBool>>> = const { RefCell::new(None) };
+}
+
+/// Test hook: jobs spawned afterwards from the calling thread wait before they start for as
+/// long as `gate` holds `true` (or until cancelled), so a test can press Cancel on a job that
+/// is certainly still running and then let the next one go. `None` removes the hook.
+pub fn hold_jobs_spawned_here(gate: Option<Arc<AtomicBool>>) {
+    GATE.with(|g| *g.borrow_mut() = gate);
+}
 
 /// A result being computed on another thread.
 pub struct Background<K, T> {
@@ -24,7 +38,13 @@ impl<K: PartialEq, T: Send + 'static> Background<K, T> {
         let (tx, rx) = channel();
         let watch = Watch::new();
         let theirs = watch.clone();
+        let gate = GATE.with(|g| g.borrow().clone());
         std::thread::spawn(move || {
+            if let Some(gate) = gate {
+                while gate.load(Ordering::Relaxed) && !theirs.stopped() {
+                    std::thread::sleep(Duration::from_millis(2));
+                }
+            }
             // The receiver may be gone (the result was abandoned); nothing to do then.
             let _ = tx.send(work(theirs));
         });

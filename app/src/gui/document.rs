@@ -23,12 +23,20 @@ pub struct Document {
     pub model: Arc<Model>,
     /// Why the current document is not valid (the model above is then older), one problem a line.
     pub problems: Option<String>,
-    /// Bumped on every change of the document.
+    /// A number no other state of any document in this process has: taken afresh at every
+    /// change and for every document opened, so work keyed by it can never be applied to
+    /// another document that happens to have made as many edits.
     pub revision: u64,
     undo: Vec<Project>,
     redo: Vec<Project>,
     /// Key of the last edit; an edit with the same key merges into it (one undo step per drag).
     merge_key: Option<String>,
+}
+
+/// The next unused document revision.
+fn fresh_revision() -> u64 {
+    static NEXT: std::sync::atomic::AtomicU64 = std::sync::atomic::AtomicU64::new(1);
+    NEXT.fetch_add(1, std::sync::atomic::Ordering::Relaxed)
 }
 
 impl Document {
@@ -42,7 +50,7 @@ impl Document {
             dirty: false,
             model: Arc::new(model),
             problems: None,
-            revision: 0,
+            revision: fresh_revision(),
             undo: Vec::new(),
             redo: Vec::new(),
             merge_key: None,
@@ -119,7 +127,7 @@ impl Document {
 
     fn changed(&mut self) {
         self.dirty = true;
-        self.revision += 1;
+        self.revision = fresh_revision();
         match self.project.validate() {
             Ok(m) => {
                 self.model = Arc::new(m);

@@ -148,6 +148,10 @@ pub fn write(app: &RigApp, kind: ExportKind, path: &Path) -> Result<String, Stri
 /// Asks where to write, then writes (beside the window on a large rig); the outcome goes to
 /// the status bar. Cancelling a long one writes nothing.
 pub fn run(app: &mut RigApp, kind: ExportKind) {
+    if let Some(t) = &app.task {
+        app.message = Some((format!("Wait for `{}` to finish, or cancel it, before exporting", t.what), true));
+        return;
+    }
     let stem = stem(app);
     let picked = match kind {
         ExportKind::Sheet(_) => save_dialog(format!("{stem}-sheet.pdf"), "PDF", "pdf"),

@@ -28,6 +28,7 @@ use eframe::egui;
 use rigwright_core::{Equilibrium, Model, NodeStiffness, Project, Vec3};
 use serde::{Deserialize, Serialize};
 
+pub use background::hold_jobs_spawned_here;
 pub use document::Document;
 pub use readouts::ReadoutTab;
 pub use recovery::Recovery;
@@ -366,7 +367,9 @@ impl RigApp {
             app.open_sample(sample);
         }
         app.solve_if_needed();
-        app.recovery.look();
+        if let Some(notice) = app.recovery.look() {
+            app.message = Some((notice, true));
+        }
         app
     }
 

@@ -140,11 +140,17 @@ impl PluckSession {
     }
 }
 
-/// A Pluck being prepared on another thread (large rigs), keyed by the model it belongs to.
-pub type PluckJob = Background<usize, Result<PluckSession, String>>;
+/// A Pluck being prepared on another thread (large rigs), keyed by the model and load case it
+/// belongs to.
+pub type PluckJob = Background<(usize, usize), Result<PluckSession, String>>;
 
 /// Above this many free DOFs a Pluck is prepared on another thread.
 const PLUCK_IN_BACKGROUND_DOF: usize = 1000;
+
+/// Free degrees of freedom of `model` (cheap: no sparse analysis, unlike `Statics::new`).
+fn free_dofs(model: &Model) -> usize {
+    rigwright_core::solve::system::DofMap::new(model, None).count
+}
 
 /// The key of a model: its address, which changes with every edit.
 pub fn model_key(model: &Arc<Model>) -> usize {
@@ -170,14 +176,14 @@ pub fn begin(app: &mut RigApp, model: Arc<Model>, start: Vec<Vec3>, node: usize)
     app.pluck = None;
     app.pluck_job = None;
     app.readout_tab = super::ReadoutTab::Pluck;
-    if Statics::new(&model).dof_count() <= PLUCK_IN_BACKGROUND_DOF {
+    if free_dofs(&model) <= PLUCK_IN_BACKGROUND_DOF {
         match prepare(model, case, start, node, &Watch::new()) {
             Ok(session) => app.pluck = Some(session),
             Err(e) => app.message = Some((format!("Pluck: {e}"), true)),
         }
         return;
     }
-    let key = model_key(&model);
+    let key = (model_key(&model), case);
     app.pluck_job = Some(Background::spawn(key, move |watch| prepare(model, case, start, node, &watch)));
 }
 
@@ -225,9 +231,8 @@ pub fn refresh_modes(app: &mut RigApp) {
         }
         return;
     }
-    let statics = Statics::new(a.model);
-    if statics.dof_count() <= MODES_IN_BACKGROUND_DOF {
-        let result = modes(&statics, a.eq, 12).map_err(|e| e.to_string());
+    if free_dofs(a.model) <= MODES_IN_BACKGROUND_DOF {
+        let result = modes(&Statics::new(a.model), a.eq, 12).map_err(|e| e.to_string());
         app.modes = Some(done(result));
         return;
     }
@@ -478,8 +483,8 @@ pub fn tick(app: &mut RigApp, wall: f64) -> bool {
     }
     let mut moving = false;
     if let Some(job) = &app.pluck_job {
-        if job.key != model_key(&app.doc.model) {
-            // Edited meanwhile: the Pluck belonged to the rig as it was.
+        if job.key != (model_key(&app.doc.model), app.case) {
+            // Edited or another load case meanwhile: the Pluck belonged to the rig as it was.
             app.pluck_job = None;
         } else if let Some(r) = job.poll() {
             app.pluck_job = None;

@@ -213,9 +213,10 @@ impl Recovery {
 
     /// Claims a slot for this window — preferring a free slot that holds a copy left by a
     /// session that did not end cleanly, and offering that copy — else the first free slot.
-    /// With every slot taken by running windows, autosave is off for this one.
-    pub fn look(&mut self) {
-        let Some(dir) = self.dir.clone() else { return };
+    /// With every slot taken by running windows, autosave is off for this one, and the
+    /// returned message says so.
+    pub fn look(&mut self) -> Option<String> {
+        let dir = self.dir.clone()?;
         let _ = std::fs::create_dir_all(&dir);
         let mut first_free: Option<(usize, Option<File>)> = None;
         let mut claimed = None;
@@ -235,12 +236,14 @@ impl Recovery {
         }
         let Some((slot, lock)) = claimed.or(first_free) else {
             self.dir = None;
-            return;
+            return Some(format!(
+                "Autosave is off in this window: {SLOTS} other Rigwright windows are keeping recovery copies in {}; save your work by hand, or close a window and start this one again",
+                dir.display()
+            ));
         };
         (self.slot, self.lock) = (slot, lock);
-        let Some(file) = self.file().filter(|f| f.exists()) else {
-            return;
-        };
+        // No copy left behind in the claimed slot: nothing to offer.
+        let file = self.file().filter(|f| f.exists())?;
         let kept = std::fs::metadata(&file).and_then(|m| m.modified()).ok();
         let (source, project) = match std::fs::read_to_string(&file) {
             Ok(text) => (source_of(&text), Project::from_ron(&text).map_err(|e| e.to_string())),
@@ -252,6 +255,7 @@ impl Recovery {
             kept,
             project,
         });
+        None
     }
 
     /// Waits until every queued write or removal is done (exit, tests).

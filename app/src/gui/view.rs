@@ -547,8 +547,12 @@ fn draw_answer(app: &RigApp, a: &Answer<'_>, painter: &egui::Painter, units: Uni
         }
     }
 
-    draw_stiffness(app, a, painter, units, &mut texts);
-    draw_pull(app, a, painter, units, &mut texts);
+    // What the user is measuring right now is placed first, so a dense rig never hides it.
+    let mut first = Vec::new();
+    draw_stiffness(app, a, painter, units, &mut first);
+    draw_pull(app, a, painter, units, &mut first);
+    first.append(&mut texts);
+    let texts = first;
 
     // Labels that would land on an earlier one (members seen edge-on in a projection) are
     // stacked below it, so none hides another; one with no free place nearby is left out (a

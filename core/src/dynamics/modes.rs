@@ -212,6 +212,7 @@ fn lanczos_pairs(
     let mut t = DMatrix::zeros(2 * min_blocks * b, 2 * min_blocks * b);
     let mut beta_prev: Option<DMatrix<f64>> = None;
     let mut unconverged = count;
+    let threads = threads_for(m);
     for k in 0..max_blocks {
         if watch.stopped() {
             return Err(ModeError::Stopped);
@@ -220,19 +221,19 @@ fn lanczos_pairs(
         let q = v.columns(k * b, b).into_owned();
         let mut w = apply(&q);
         if let Some(bp) = &beta_prev {
-            subtract(&v, (k - 1) * b..k * b, &bp.transpose(), &mut w);
+            subtract(&v, (k - 1) * b..k * b, &bp.transpose(), &mut w, threads);
         }
-        let a = inner(&v, k * b..(k + 1) * b, &w);
-        subtract(&v, k * b..(k + 1) * b, &a, &mut w);
+        let a = inner(&v, k * b..(k + 1) * b, &w, threads);
+        subtract(&v, k * b..(k + 1) * b, &a, &mut w, threads);
         // Full reorthogonalisation against the whole basis; a second pass only when the first
         // removed most of a column ("twice is enough", Parlett, *The Symmetric Eigenvalue
         // Problem*, §6.9).
         let before: Vec<f64> = w.column_iter().map(|c| c.norm()).collect();
-        let c = inner(&v, 0..(k + 1) * b, &w);
-        subtract(&v, 0..(k + 1) * b, &c, &mut w);
+        let c = inner(&v, 0..(k + 1) * b, &w, threads);
+        subtract(&v, 0..(k + 1) * b, &c, &mut w, threads);
         if w.column_iter().zip(&before).any(|(c, n0)| c.norm() < 0.7 * n0) {
-            let c = inner(&v, 0..(k + 1) * b, &w);
-            subtract(&v, 0..(k + 1) * b, &c, &mut w);
+            let c = inner(&v, 0..(k + 1) * b, &w, threads);
+            subtract(&v, 0..(k + 1) * b, &c, &mut w, threads);
         }
         let a = (&a + a.transpose()) * 0.5;
         t.view_mut((k * b, k * b), (b, b)).copy_from(&a);
@@ -264,30 +265,35 @@ fn lanczos_pairs(
 /// Tall blocks with at least this many rows are shared out among the machine's threads.
 const PARALLEL_ROWS: usize = 5000;
 
-/// Row ranges splitting `m` rows among the threads (a single range for small blocks). The
-/// products of the tall, thin basis with a block are limited by reading the basis from memory,
-/// which two threads do faster than one.
-fn row_ranges(m: usize) -> Vec<std::ops::Range<usize>> {
-    let threads = if m >= PARALLEL_ROWS {
+/// Threads for products over `m` rows: the machine's (at most 8) for tall blocks, else one.
+/// The products of the tall, thin basis with a block are limited by reading the basis from
+/// memory, which two threads do faster than one.
+fn threads_for(m: usize) -> usize {
+    if m >= PARALLEL_ROWS {
         std::thread::available_parallelism().map_or(1, |t| t.get()).min(8)
     } else {
         1
-    };
-    let rows = m.div_ceil(threads);
+    }
+}
+
+/// Contiguous row ranges, from row 0, splitting `m` rows among `threads`.
+fn row_ranges(m: usize, threads: usize) -> Vec<std::ops::Range<usize>> {
+    let threads = threads.max(1);
+    let rows = m.div_ceil(threads).max(1);
     (0..threads)
-        .map(|t| t * rows..((t + 1) * rows).min(m))
+        .map(|t| (t * rows).min(m)..((t + 1) * rows).min(m))
         .filter(|r| !r.is_empty())
         .collect()
 }
 
 /// `V[:, cols]ᵀ w`, summed over row ranges computed in parallel.
-fn inner(v: &DMatrix<f64>, cols: std::ops::Range<usize>, w: &DMatrix<f64>) -> DMatrix<f64> {
+fn inner(v: &DMatrix<f64>, cols: std::ops::Range<usize>, w: &DMatrix<f64>, threads: usize) -> DMatrix<f64> {
     let (m, b) = w.shape();
     let basis = faer::MatRef::from_column_major_slice(&v.as_slice()[m * cols.start..m * cols.end], m, cols.len());
     let block = faer::MatRef::from_column_major_slice(w.as_slice(), m, b);
     let part = |r: std::ops::Range<usize>| basis.subrows(r.start, r.len()).transpose() * block.subrows(r.start, r.len());
-    let ranges = row_ranges(m);
-    let parts: Vec<faer::Mat<f64>> = if ranges.len() == 1 {
+    let ranges = row_ranges(m, threads);
+    let parts: Vec<faer::Mat<f64>> = if ranges.len() <= 1 {
         vec![part(0..m)]
     } else {
         std::thread::scope(|s| {
@@ -299,16 +305,16 @@ fn inner(v: &DMatrix<f64>, cols: std::ops::Range<usize>, w: &DMatrix<f64>) -> DM
 }
 
 /// `w ← w − V[:, cols] c`, over row ranges in parallel.
-fn subtract(v: &DMatrix<f64>, cols: std::ops::Range<usize>, c: &DMatrix<f64>, w: &mut DMatrix<f64>) {
+fn subtract(v: &DMatrix<f64>, cols: std::ops::Range<usize>, c: &DMatrix<f64>, w: &mut DMatrix<f64>, threads: usize) {
     let (m, b) = w.shape();
     let basis = faer::MatRef::from_column_major_slice(&v.as_slice()[m * cols.start..m * cols.end], m, cols.len());
     let coef = faer::MatRef::from_column_major_slice(c.as_slice(), cols.len(), b);
     let update = |r: std::ops::Range<usize>, dst: faer::MatMut<'_, f64>| {
         faer::linalg::matmul::matmul(dst, faer::Accum::Add, basis.subrows(r.start, r.len()), coef, -1.0, faer::Par::Seq);
     };
-    let ranges = row_ranges(m);
+    let ranges = row_ranges(m, threads);
     let mut rest = faer::MatMut::from_column_major_slice_mut(w.as_mut_slice(), m, b);
-    if ranges.len() == 1 {
+    if ranges.len() <= 1 {
         update(0..m, rest);
         return;
     }
@@ -367,4 +373,29 @@ fn ritz_pairs(
 fn qr_block(w: DMatrix<f64>) -> (DMatrix<f64>, DMatrix<f64>) {
     let qr = w.qr();
     (qr.q(), qr.r())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The products split over rows agree with nalgebra's own, for uneven splits too.
+    #[test]
+    fn products_split_over_threads_match_the_plain_products() {
+        let (m, cols, b) = (101, 7, 4);
+        let v = DMatrix::from_fn(m, cols, |i, j| ((i * 7 + j * 13) % 17) as f64 - 8.0);
+        let w = DMatrix::from_fn(m, b, |i, j| ((i * 3 + j * 5) % 11) as f64 * 0.5 - 2.0);
+        let c = DMatrix::from_fn(5, b, |i, j| (i + 2 * j) as f64 - 3.0);
+        let plain_inner = v.columns(1, 5).transpose() * &w;
+        let mut plain_w = w.clone();
+        plain_w -= v.columns(1, 5) * &c;
+        for threads in [1, 2, 3, 8, 200] {
+            assert!((inner(&v, 1..6, &w, threads) - &plain_inner).amax() < 1e-12, "{threads} threads");
+            let mut split = w.clone();
+            subtract(&v, 1..6, &c, &mut split, threads);
+            assert!((split - &plain_w).amax() < 1e-12, "{threads} threads");
+        }
+        let ranges = row_ranges(10, 3);
+        assert_eq!(ranges, vec![0..4, 4..8, 8..10]);
+    }
 }

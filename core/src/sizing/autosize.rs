@@ -114,7 +114,11 @@ pub fn auto_size_watched(
             break;
         }
         let model = p.validate()?;
-        let cases = solve_cases_watched(&model, watch);
+        let cases = solve_cases_watched(&model, &watch.child());
+        if watch.stopped() {
+            // Cases cut short are not failures: keep the previous round's choice.
+            break;
+        }
         watch.advance();
         result.iterations = round;
         if let Some(bad) = cases.iter().find(|c| c.error.is_some()) {

@@ -299,8 +299,9 @@ pub fn sweep(
     sweep_watched(project, catalogue, case, param, range, outputs, &Watch::new())
 }
 
-/// [`sweep`] that counts finished values on `watch` and, once it is stopped, returns the
-/// values finished so far (fewer rows than asked for).
+/// [`sweep`] that counts finished values on `watch` and, once it is stopped, returns only
+/// values finished before the stop (fewer rows than asked for; the value in progress is left
+/// out).
 pub fn sweep_watched(
     project: &Project,
     catalogue: &Catalogue,
@@ -376,7 +377,7 @@ pub fn sweep_watched(
         let mut row = Vec::with_capacity(outputs.len());
         for o in outputs {
             let v: Result<f64, String> = match o {
-                Output::LowestFrequency => modes_watched(&statics, &eq, 1, watch)
+                Output::LowestFrequency => modes_watched(&statics, &eq, 1, &watch.child())
                     .map_err(|e| e.to_string())
                     .and_then(|m| m.modes.first().map(|m| m.frequency_hz).ok_or_else(|| "no mode".to_string())),
                 Output::PeakTension => Ok(eq.members.iter().map(|m| m.force).fold(0.0, f64::max)),
@@ -442,6 +443,14 @@ pub fn sweep_watched(
         result.rows.push(row);
         result.notes.push(note);
     }
-    watch.advance();
+    if watch.stopped() {
+        // The value in progress when the stop came may have been cut short: leave it out.
+        let keep = result.values.len().saturating_sub(1);
+        result.values.truncate(keep);
+        result.rows.truncate(keep);
+        result.notes.truncate(keep);
+    } else {
+        watch.advance();
+    }
     Ok(result)
 }
