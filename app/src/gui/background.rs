@@ -10,7 +10,14 @@ use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::mpsc::{Receiver, TryRecvError, channel};
 use std::time::{Duration, Instant};
 
+use eframe::egui;
 use rigwright_core::Watch;
+
+/// Above this many nodes, work that solves every load case (checks, Sweeps, auto-size, the
+/// Sheet) runs on another thread.
+pub const BACKGROUND_NODES: usize = 350;
+/// Above this many free DOFs the modes and the preparation of a Pluck run on another thread.
+pub const BACKGROUND_DOF: usize = 1000;
 
 thread_local! {
     static GATE: RefCell<Option<Arc<AtomicBool>>> = const { RefCell::new(None) };
@@ -69,6 +76,17 @@ impl<K: PartialEq, T: Send + 'static> Background<K, T> {
     pub fn steps_done(&self) -> usize {
         self.watch.done()
     }
+}
+
+/// A job's progress `text` with a Cancel button beside it (hover text `hover`); true when
+/// Cancel was clicked. Keeps the window repainting so the progress moves.
+pub fn progress_row(ui: &mut egui::Ui, text: String, hover: &str) -> bool {
+    ui.ctx().request_repaint_after(Duration::from_millis(100));
+    ui.horizontal(|ui| {
+        ui.label(text);
+        ui.button("Cancel").on_hover_text(hover).clicked()
+    })
+    .inner
 }
 
 impl<K, T> Drop for Background<K, T> {

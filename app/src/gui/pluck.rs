@@ -14,7 +14,7 @@ use rigwright_core::dynamics::{Modes, Motion, MotionSettings, modes, modes_watch
 use rigwright_core::{Equilibrium, Model, Statics, Vec3, Watch};
 
 use super::RigApp;
-use super::background::Background;
+use super::background::{BACKGROUND_DOF, Background, progress_row};
 use super::palette as pal;
 use super::units::{Quantity, Units};
 
@@ -144,17 +144,14 @@ impl PluckSession {
 /// belongs to.
 pub type PluckJob = Background<(usize, usize), Result<PluckSession, String>>;
 
-/// Above this many free DOFs a Pluck is prepared on another thread.
-const PLUCK_IN_BACKGROUND_DOF: usize = 1000;
-
 /// Free degrees of freedom of `model` (cheap: no sparse analysis, unlike `Statics::new`).
 fn free_dofs(model: &Model) -> usize {
     rigwright_core::solve::system::DofMap::new(model, None).count
 }
 
 /// The key of a model: its address, which changes with every edit.
-pub fn model_key(model: &Arc<Model>) -> usize {
-    Arc::as_ptr(model) as usize
+pub fn model_key(model: &Model) -> usize {
+    model as *const Model as usize
 }
 
 /// Prepares a Pluck released from `start` (the held shape of a Pull of `node`): the
@@ -176,7 +173,7 @@ pub fn begin(app: &mut RigApp, model: Arc<Model>, start: Vec<Vec3>, node: usize)
     app.pluck = None;
     app.pluck_job = None;
     app.readout_tab = super::ReadoutTab::Pluck;
-    if free_dofs(&model) <= PLUCK_IN_BACKGROUND_DOF {
+    if free_dofs(&model) <= BACKGROUND_DOF {
         match prepare(model, case, start, node, &Watch::new()) {
             Ok(session) => app.pluck = Some(session),
             Err(e) => app.message = Some((format!("Pluck: {e}"), true)),
@@ -202,9 +199,6 @@ pub struct ModesState {
     pub cancelled: bool,
 }
 
-/// Above this many free DOFs the modes are computed on another thread.
-const MODES_IN_BACKGROUND_DOF: usize = 1000;
-
 /// Computes the modes of the current answer if they are missing or stale: at once for small
 /// rigs, on another thread for large ones (the window keeps running meanwhile).
 pub fn refresh_modes(app: &mut RigApp) {
@@ -213,7 +207,7 @@ pub fn refresh_modes(app: &mut RigApp) {
         app.modes_job = None;
         return;
     };
-    let key = (a.model as *const Model as usize, app.case);
+    let key = (model_key(a.model), app.case);
     if app.modes.as_ref().is_some_and(|m| m.key == key) {
         return;
     }
@@ -231,7 +225,7 @@ pub fn refresh_modes(app: &mut RigApp) {
         }
         return;
     }
-    if free_dofs(a.model) <= MODES_IN_BACKGROUND_DOF {
+    if free_dofs(a.model) <= BACKGROUND_DOF {
         let result = modes(&Statics::new(a.model), a.eq, 12).map_err(|e| e.to_string());
         app.modes = Some(done(result));
         return;
@@ -303,15 +297,11 @@ pub fn draw_moving(app: &RigApp, painter: &egui::Painter, positions: &[Vec3], fo
 pub fn pluck_ui(app: &mut RigApp, ui: &mut egui::Ui) {
     let units = app.settings.units;
     if let Some(job) = &app.pluck_job {
-        let mut cancel = false;
-        ui.horizontal(|ui| {
-            ui.label(format!(
-                "Preparing the Pluck of this large rig (the equilibrium it vibrates about and its lowest mode)… {:.1} s",
-                job.started.elapsed().as_secs_f64()
-            ));
-            cancel = ui.button("Cancel").on_hover_text("Do not start this Pluck").clicked();
-        });
-        if cancel {
+        let text = format!(
+            "Preparing the Pluck of this large rig (the equilibrium it vibrates about and its lowest mode)… {:.1} s",
+            job.started.elapsed().as_secs_f64()
+        );
+        if progress_row(ui, text, "Do not start this Pluck") {
             app.pluck_job = None;
         }
         return;
@@ -391,17 +381,12 @@ pub fn modes_ui(app: &mut RigApp, ui: &mut egui::Ui) {
     let units: Units = app.settings.units;
     if let Some(job) = &app.modes_job {
         let key = job.key;
-        let mut cancel = false;
-        ui.horizontal(|ui| {
-            ui.label(format!(
-                "Computing the natural modes of this large rig… {:.1} s, {} Lanczos blocks",
-                job.started.elapsed().as_secs_f64(),
-                job.steps_done()
-            ));
-            cancel = ui.button("Cancel").on_hover_text("Stop computing the modes").clicked();
-        });
-        ui.ctx().request_repaint_after(std::time::Duration::from_millis(100));
-        if cancel {
+        let text = format!(
+            "Computing the natural modes of this large rig… {:.1} s, {} Lanczos blocks",
+            job.started.elapsed().as_secs_f64(),
+            job.steps_done()
+        );
+        if progress_row(ui, text, "Stop computing the modes") {
             app.modes_job = None;
             app.modes = Some(ModesState {
                 key,

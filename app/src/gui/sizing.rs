@@ -18,13 +18,10 @@ use rigwright_core::sizing::{
     sweep_watched,
 };
 
-use super::background::Background;
+use super::background::{BACKGROUND_NODES, Background, progress_row};
 use super::palette as pal;
 use super::units::{Quantity, significant};
 use super::{Command, RigApp, Selection};
-
-/// Above this many nodes the checks run on another thread (they solve every case from rest).
-const AUTO_CHECK_NODES: usize = 350;
 
 /// Sizing state kept between frames.
 #[derive(Default)]
@@ -158,7 +155,7 @@ pub fn checks_ui(app: &mut RigApp, ui: &mut egui::Ui) {
     if stale {
         let project = app.doc.project.clone();
         let run = move |watch: Watch| check_project_watched(&project, &catalogue(&project), &watch).map_err(|e| e.to_string());
-        if app.doc.project.nodes.len() <= AUTO_CHECK_NODES {
+        if app.doc.project.nodes.len() <= BACKGROUND_NODES {
             app.sizing.report = Some((revision, run(Watch::new())));
             app.sizing.job = None;
         } else {
@@ -172,21 +169,16 @@ pub fn checks_ui(app: &mut RigApp, ui: &mut egui::Ui) {
                     app.sizing.job = None;
                 }
                 None => {
-                    let mut cancel = false;
-                    ui.horizontal(|ui| {
-                        ui.label(format!(
-                            "Checking every member in every load case of this large rig… {:.1} s, {} of {} cases solved (the window stays usable)",
-                            job.started.elapsed().as_secs_f64(),
-                            job.steps_done(),
-                            app.doc.project.cases.len()
-                        ));
-                        cancel = ui.button("Cancel").on_hover_text("Stop the checks").clicked();
-                    });
-                    if cancel {
+                    let text = format!(
+                        "Checking every member in every load case of this large rig… {:.1} s, {} of {} cases solved (the window stays usable)",
+                        job.started.elapsed().as_secs_f64(),
+                        job.steps_done(),
+                        app.doc.project.cases.len()
+                    );
+                    if progress_row(ui, text, "Stop the checks") {
                         app.sizing.job = None;
                         app.sizing.cancelled = Some(revision);
                     }
-                    ui.ctx().request_repaint_after(std::time::Duration::from_millis(100));
                     return;
                 }
             }
@@ -914,8 +906,6 @@ pub fn sweep_ui(app: &mut RigApp, ui: &mut egui::Ui) {
             app.sizing.sweep.result = Some(r.and_then(|r| r));
             app.sizing.sweep.shown = 0;
             app.sizing.sweep.job = None;
-        } else {
-            ui.ctx().request_repaint_after(std::time::Duration::from_millis(100));
         }
     }
 }
@@ -940,7 +930,7 @@ fn start_sweep(app: &mut RigApp) {
     let range = (s.from, s.to, s.steps);
     let work =
         move |watch: Watch| sweep_watched(&project, &parts, case.as_deref(), &param, range, &outputs, &watch).map_err(|e| e.to_string());
-    if app.doc.project.nodes.len() <= AUTO_CHECK_NODES {
+    if app.doc.project.nodes.len() <= BACKGROUND_NODES {
         app.sizing.sweep.result = Some(work(Watch::new()));
         app.sizing.sweep.shown = 0;
         app.sizing.sweep.job = None;
@@ -953,12 +943,12 @@ fn start_sweep(app: &mut RigApp) {
 fn sweep_result(app: &mut RigApp, ui: &mut egui::Ui) {
     let s = &mut app.sizing.sweep;
     if let Some((job, steps)) = &s.job {
-        ui.label(format!(
+        let text = format!(
             "Sweeping this large rig… {} of {steps} values done, {:.1} s (the window stays usable)",
             job.steps_done(),
             job.started.elapsed().as_secs_f64()
-        ));
-        if ui.button("Cancel").on_hover_text("Stop the Sweep").clicked() {
+        );
+        if progress_row(ui, text, "Stop the Sweep") {
             s.job = None;
         }
         return;

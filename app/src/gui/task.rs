@@ -7,13 +7,10 @@ use eframe::egui;
 use rigwright_core::Watch;
 
 use super::RigApp;
-use super::background::Background;
+use super::background::{BACKGROUND_NODES, Background};
 
 /// What a finished task does to the app (on the window's thread).
 pub type Apply = Box<dyn FnOnce(&mut RigApp) + Send>;
-
-/// Above this many nodes a task runs on another thread.
-pub const BACKGROUND_NODES: usize = 350;
 
 /// A task running on another thread.
 pub struct Task {
