@@ -352,15 +352,16 @@ fn ritz_pairs(
     if unconverged > 0 {
         return (Vec::new(), unconverged);
     }
-    // Ritz vectors V s, formed only once every wanted pair has converged.
+    // Ritz vectors V S, formed only once every wanted pair has converged, in one product.
     let m = v.nrows();
     let basis = faer::MatRef::from_column_major_slice(&v.as_slice()[..m * dim], m, dim);
+    let s = DMatrix::from_fn(dim, wanted.len(), |r, j| eig.eigenvectors[(r, wanted[j])]);
+    let y = basis * faer::MatRef::from_column_major_slice(s.as_slice(), dim, wanted.len());
     let pairs = wanted
         .iter()
-        .map(|&i| {
-            let s: Vec<f64> = eig.eigenvectors.column(i).iter().copied().collect();
-            let y = basis * faer::MatRef::from_column_major_slice(&s, dim, 1);
-            let mut y: Vec<f64> = (0..m).map(|r| y[(r, 0)]).collect();
+        .enumerate()
+        .map(|(j, &i)| {
+            let mut y: Vec<f64> = y.col(j).iter().copied().collect();
             let nrm = y.iter().map(|x| x * x).sum::<f64>().sqrt();
             y.iter_mut().for_each(|x| *x /= nrm);
             (eig.eigenvalues[i], y)
