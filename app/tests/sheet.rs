@@ -385,3 +385,98 @@ fn the_app_writes_the_sheet_and_csv_of_its_document_and_reports_a_failed_write()
     let err = write(&app, ExportKind::Json, &dir.join("no-such-folder").join("r.json")).unwrap_err();
     assert!(err.contains("could not write"), "{err}");
 }
+
+/// The texts drawn on one laid-out page.
+fn texts(page: &rigwright::sheet::Page) -> Vec<String> {
+    page.ops
+        .iter()
+        .filter_map(|op| match op {
+            Op::Text { text, .. } => Some(text.clone()),
+            _ => None,
+        })
+        .collect()
+}
+
+/// Page 1 is a summary of its own: on a rig too large for one page it holds the verdict, the
+/// load cases, the drawing, the most utilised members (none left off that is more utilised
+/// than one shown), the frequencies, the design basis and the cautions; every member and
+/// every node follow on the later pages. Small samples keep every member on page 1. (What a
+/// one-page summary must hold is the product's own requirement, not an outside source.)
+#[test]
+fn page_one_summarises_and_the_complete_tables_follow() {
+    let options = SheetOptions {
+        file_name: Some("x.rig.ron".into()),
+        ..Default::default()
+    };
+    let project = Project::load(&sample("canopy-net-6x6.rig.ron")).unwrap();
+    let sheet = Sheet::build(&project, b"", &options).unwrap();
+    let pages = sheet.pages(Paper::A4);
+    assert!(pages.len() >= 2, "{} page(s)", pages.len());
+    let first = texts(&pages[0]);
+    let n = sheet.report.members.len();
+    let heading = first
+        .iter()
+        .find(|t| t.contains("most utilised of"))
+        .unwrap_or_else(|| panic!("no summary heading on page 1: {first:?}"));
+    assert!(heading.contains(&format!("of {n}")), "{heading}");
+    for must in [
+        "PASSES",
+        "Load cases",
+        "Natural frequencies",
+        "Design factors and limits",
+        "CAUTION.",
+    ] {
+        assert!(first.iter().any(|t| t.contains(must)), "page 1 lacks `{must}`");
+    }
+    let utilisation = |id: &str| {
+        let m = sheet.report.members.iter().find(|m| m.id == id).unwrap();
+        m.utilisation.unwrap_or(f64::NEG_INFINITY)
+    };
+    let on_first: Vec<&str> = sheet
+        .report
+        .members
+        .iter()
+        .map(|m| m.id.as_str())
+        .filter(|id| first.iter().any(|t| t == id))
+        .collect();
+    assert!(on_first.len() >= 6 && on_first.len() < n, "{} members on page 1", on_first.len());
+    let least_shown = on_first.iter().map(|id| utilisation(id)).fold(f64::INFINITY, f64::min);
+    for m in &sheet.report.members {
+        if !on_first.contains(&m.id.as_str()) {
+            assert!(utilisation(&m.id) <= least_shown, "`{}` is more utilised than one shown", m.id);
+        }
+    }
+    let rest: Vec<String> = pages[1..].iter().flat_map(texts).collect();
+    for m in &sheet.report.members {
+        assert!(rest.contains(&m.id), "member `{}` missing from the complete table", m.id);
+    }
+    for node in &project.nodes {
+        assert!(rest.contains(&node.id), "node `{}` missing from the complete table", node.id);
+    }
+    // Small rigs: every member in the table on page 1 (ids in tables are bold; the drawing
+    // labels members in regular type).
+    for name in [
+        "sign-on-two-cables.rig.ron",
+        "guyed-pole.rig.ron",
+        "machine-on-four-springs.rig.ron",
+    ] {
+        let project = Project::load(&sample(name)).unwrap();
+        let sheet = Sheet::build(&project, b"", &options).unwrap();
+        let pages = sheet.pages(Paper::A4);
+        let bold: Vec<&str> = pages[0]
+            .ops
+            .iter()
+            .filter_map(|op| match op {
+                Op::Text { text, weight, .. } if *weight == fonts::Weight::Bold => Some(text.as_str()),
+                _ => None,
+            })
+            .collect();
+        for m in &project.members {
+            assert!(
+                bold.contains(&m.id.as_str()),
+                "{name}: member `{}` not in the table on page 1",
+                m.id
+            );
+        }
+    }
+}

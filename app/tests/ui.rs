@@ -5,7 +5,7 @@ use eframe::egui::{self, Pos2};
 use egui_kittest::Harness;
 use egui_kittest::kittest::{NodeT, Queryable};
 use rigwright::RigApp;
-use rigwright::gui::{Command, Quantity, Recovery, Selection, Settings, Units, hold_jobs_spawned_here};
+use rigwright::gui::{Command, Quantity, ReadoutTab, Recovery, Selection, Settings, Units, hold_jobs_spawned_here};
 use std::sync::Arc;
 use std::sync::atomic::{AtomicBool, Ordering};
 
@@ -150,7 +150,7 @@ fn pulling_a_node_shows_a_restoring_force_that_grows_with_the_pull() {
 #[test]
 fn the_modes_tab_lists_the_natural_frequencies_of_the_equilibrium() {
     let mut h = harness();
-    h.get_by_label("Modes").click();
+    show_tab(&mut h, ReadoutTab::Modes);
     h.run();
     let expected = {
         let a = h.state().answer().expect("the sample solves");
@@ -320,7 +320,7 @@ fn f1_opens_the_shortcut_help_and_the_about_box_carries_the_cautions() {
 #[test]
 fn the_checks_tab_shows_status_in_words_and_auto_size_fixes_a_failure() {
     let mut h = harness();
-    h.get_by_label("Checks").click();
+    show_tab(&mut h, ReadoutTab::Checks);
     h.run();
     let p = h.state().doc.project.clone();
     let report = rigwright_core::sizing::check_project(&p, &rigwright_core::sizing::project_catalogue(&p, &Default::default())).unwrap();
@@ -366,7 +366,7 @@ fn the_spring_designer_assigns_its_spring_to_the_member() {
     let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../sample-projects/machine-on-four-springs.rig.ron");
     h.state_mut().queue(Command::Open(path));
     h.run();
-    h.get_by_label("Checks").click();
+    show_tab(&mut h, ReadoutTab::Checks);
     h.run();
     h.state_mut().selection = Selection::Member(0);
     h.run();
@@ -388,7 +388,7 @@ fn the_spring_designer_assigns_its_spring_to_the_member() {
 #[test]
 fn a_sweep_run_from_the_sweep_tab_plots_its_outputs() {
     let mut h = harness();
-    h.get_by_label("Sweep").click();
+    show_tab(&mut h, ReadoutTab::Sweep);
     h.run();
     h.get_by_label("Run Sweep").click();
     h.run();
@@ -419,7 +419,22 @@ fn importing_a_parts_file_adds_its_parts_and_a_bad_one_changes_nothing() {
     std::fs::remove_file(bad).ok();
 }
 
+/// Shows readout tab `tab` by clicking it, clicking again when a frame moved the tab from under
+/// the click (on a large rig the window's layout can still change as results come in).
+#[track_caller]
+fn show_tab(h: &mut Harness<'static, RigApp>, tab: ReadoutTab) {
+    for _ in 0..10 {
+        h.get_by_label(&format!("{tab:?}")).click();
+        h.step();
+        if h.state().readout_tab == tab {
+            return;
+        }
+    }
+    panic!("the {tab:?} tab does not open");
+}
+
 /// Steps frames (without waiting for the UI to settle) until `done` or 60 s pass.
+#[track_caller]
 fn step_until(h: &mut Harness<'static, RigApp>, done: impl Fn(&RigApp) -> bool) {
     let start = std::time::Instant::now();
     while !done(h.state()) && start.elapsed().as_secs() < 60 {
@@ -444,13 +459,13 @@ fn large_net(name: &str) -> (Harness<'static, RigApp>, std::path::PathBuf) {
 #[test]
 fn modes_and_checks_of_a_large_rig_run_beside_the_window() {
     let (mut h, path) = large_net("large");
-    h.get_by_label("Modes").click();
+    show_tab(&mut h, ReadoutTab::Modes);
     h.step();
     // The first frames show the work in progress; the window keeps drawing meanwhile.
     assert!(h.state().modes_job.is_some(), "the modes of 1,200 free DOFs run on another thread");
     step_until(&mut h, |app| app.modes.is_some());
     assert!(h.state().modes.as_ref().unwrap().result.is_ok());
-    h.get_by_label("Checks").click();
+    show_tab(&mut h, ReadoutTab::Checks);
     h.step();
     assert!(h.state().sizing.checking(), "a 480-node rig is checked on another thread");
     step_until(&mut h, |app| app.sizing.report().is_some());
@@ -465,6 +480,27 @@ fn button(h: &Harness<'static, RigApp>, label: &str) -> bool {
     h.query_by_role_and_label(egui::accesskit::Role::Button, label).is_some()
 }
 
+/// Drags node `id` 20 px down with the Pull tool (already chosen), waits for the pull force and
+/// lets go.
+fn pull_and_release(h: &mut Harness<'static, RigApp>, id: &str) {
+    let start = {
+        let a = h.state().answer().unwrap();
+        let p = a.eq.nodes[a.model.node_index(id).unwrap()].position;
+        h.state().screen_pos([p.x, p.y, p.z])
+    };
+    h.hover_at(start);
+    h.step();
+    h.drag_at(start);
+    h.step();
+    let end = start + egui::vec2(0.0, 20.0);
+    h.hover_at(end);
+    h.step();
+    step_until(h, |app| app.pull.as_ref().is_some_and(|p| p.force.is_some()));
+    h.drop_at(end);
+    h.step();
+    h.step();
+}
+
 #[test]
 fn long_computations_of_a_large_rig_can_be_cancelled_and_started_again() {
     let (mut h, path) = large_net("cancel");
@@ -474,7 +510,7 @@ fn long_computations_of_a_large_rig_can_be_cancelled_and_started_again() {
     let open = |g: &AtomicBool, v: bool| g.store(!v, Ordering::Relaxed);
 
     // Modes: Cancel, then compute again.
-    h.get_by_label("Modes").click();
+    show_tab(&mut h, ReadoutTab::Modes);
     h.step();
     assert!(h.state().modes_job.is_some());
     h.get_by_role_and_label(egui::accesskit::Role::Button, "Cancel").click();
@@ -491,7 +527,7 @@ fn long_computations_of_a_large_rig_can_be_cancelled_and_started_again() {
     open(&gate, false);
 
     // Checks: Cancel, then check now.
-    h.get_by_label("Checks").click();
+    show_tab(&mut h, ReadoutTab::Checks);
     h.step();
     assert!(h.state().sizing.checking());
     h.get_by_role_and_label(egui::accesskit::Role::Button, "Cancel").click();
@@ -507,7 +543,7 @@ fn long_computations_of_a_large_rig_can_be_cancelled_and_started_again() {
     open(&gate, false);
 
     // Sweep: runs beside the window and can be cancelled.
-    h.get_by_label("Sweep").click();
+    show_tab(&mut h, ReadoutTab::Sweep);
     h.run();
     h.get_by_role_and_label(egui::accesskit::Role::Button, "Run Sweep").click();
     h.step();
@@ -523,34 +559,20 @@ fn long_computations_of_a_large_rig_can_be_cancelled_and_started_again() {
 
     // Pluck: pull the middle node, let go; it is prepared on another thread.
     tool(&mut h, "Pull");
-    let start = {
-        let a = h.state().answer().unwrap();
-        let p = a.eq.nodes[a.model.node_index("n11_11").unwrap()].position;
-        h.state().screen_pos([p.x, p.y, p.z])
-    };
-    h.hover_at(start);
-    h.step();
-    h.drag_at(start);
-    h.step();
-    let end = start + egui::vec2(0.0, 20.0);
-    h.hover_at(end);
-    h.step();
-    step_until(&mut h, |app| app.pull.as_ref().is_some_and(|p| p.force.is_some()));
-    h.drop_at(end);
-    h.step();
-    h.step();
+    pull_and_release(&mut h, "n11_11");
     assert!(
         h.state().pluck_job.is_some(),
         "the Pluck of 1,200 free DOFs is prepared on another thread"
     );
-    h.get_by_label("Pluck").click();
+    show_tab(&mut h, ReadoutTab::Pluck);
     h.step();
     h.get_by_role_and_label(egui::accesskit::Role::Button, "Cancel").click();
     h.step();
     assert!(h.state().pluck_job.is_none() && h.state().pluck.is_none(), "not started");
+    // A second pull and release runs.
     open(&gate, true);
-    h.state_mut().queue(Command::Pluck);
-    h.step();
+    step_until(&mut h, |app| app.answer().is_some_and(|a| a.eq.hold.is_none()));
+    pull_and_release(&mut h, "n11_11");
     step_until(&mut h, |app| app.pluck.is_some());
     assert!(h.state().pluck.as_ref().unwrap().failure.is_none());
     hold_jobs_spawned_here(None);
@@ -560,7 +582,7 @@ fn long_computations_of_a_large_rig_can_be_cancelled_and_started_again() {
 #[test]
 fn auto_size_of_a_large_rig_runs_beside_the_window_and_cancel_changes_nothing() {
     let (mut h, path) = large_net("autosize");
-    h.get_by_label("Checks").click();
+    show_tab(&mut h, ReadoutTab::Checks);
     h.step();
     step_until(&mut h, |app| app.sizing.report().is_some());
     h.run_steps(2);

@@ -21,6 +21,7 @@ fn net_sample() -> Project {
         source: "invented for this example; use your supplier's rated values".into(),
     });
     for m in &mut p.members {
+        m.mass_per_length = 0.31;
         m.design = Some(MemberDesign {
             part: Some("ss-1x19-8".into()),
             ..MemberDesign::default()

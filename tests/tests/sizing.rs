@@ -133,6 +133,32 @@ fn strut_buckling_utilisation_follows_euler() {
     );
 }
 
+/// A stocky strut: the squash capacity governs, not Euler buckling (P_cr = π² E I / (K L)²,
+/// Timoshenko & Gere §2.1), and the capacity shown for the member is the one that governs.
+#[test]
+fn a_stocky_strut_shows_the_capacity_that_governs() {
+    let mut p = Project::new("stocky prop");
+    p.nodes = vec![anchor("base", (0.0, 0.0, 0.0)), guided_y("top", (0.0, 0.5, 0.0), 800.0)];
+    p.members = vec![member("prop", "base", "top", strut(2e8, Rest::AsDrawn))];
+    let (e, i, squash) = (210e9, 3.0e-7, 2.0e5);
+    p.members[0].design = design(|d| {
+        d.section = Some(StrutSection {
+            modulus: e,
+            second_moment: i,
+            length_factor: 1.0,
+            capacity: Some(squash),
+        })
+    });
+    let r = check_project(&p, &Catalogue::default()).unwrap();
+    let c = &r.members[0];
+    let pcr = std::f64::consts::PI.powi(2) * e * i / (0.5 * 0.5);
+    assert!(pcr > squash, "the example needs P_cr {pcr} above the squash capacity");
+    let cap = c.capacity.as_ref().unwrap();
+    assert_eq!((cap.value, cap.what), (squash, "axial capacity"));
+    let expect = 800.0 * G * 2.0 / squash;
+    assert!(rel(c.utilisation.unwrap(), expect) < 1e-6, "{} vs {expect}", c.utilisation.unwrap());
+}
+
 /// A mass on a designed compression spring: stress from Shigley eq. 10-7 at F = m g, and the
 /// solid-length check fails once the deflection m g / k passes L0 − Ls (Shigley Table 10-1).
 #[test]

@@ -88,18 +88,88 @@ impl Flow {
     }
 }
 
-/// Lays the whole sheet out on pages of `paper`: with the drawing as large as fits, but
-/// smaller when that keeps the sheet on one page.
+/// Lays the whole sheet out on pages of `paper`. Everything on one page when it fits, with the
+/// drawing as large as allows that. Otherwise page 1 is the summary (verdict, load cases,
+/// drawing, warnings, the most utilised members, frequencies, design basis) and the complete
+/// member and node tables follow on the next pages.
 pub fn pages(sheet: &Sheet, paper: Paper) -> Vec<Page> {
-    let mut best = None;
-    for fraction in [0.40, 0.32, 0.26, 0.20] {
-        let pages = lay_out(sheet, paper, fraction);
-        if pages.len() == 1 {
-            return finish(pages, sheet, paper);
-        }
-        best.get_or_insert(pages);
+    // One page: the drawing takes what the rest leaves, between its smallest and largest size.
+    let least = lay_out(sheet, paper, DRAWING_MIN, Members::All);
+    if least.pages.len() == 1 {
+        let grown = (DRAWING_MIN + least.room).min(DRAWING_MAX);
+        let laid = lay_out(sheet, paper, grown, Members::All);
+        let laid = if laid.pages.len() == 1 { laid } else { least };
+        return finish(laid.pages, sheet, paper);
     }
-    finish(best.expect("at least one layout"), sheet, paper)
+    // A summary on page 1: every member when they fit beside a drawing of some size, else as
+    // many of the most utilised as fit beside the largest drawing that leaves room for a few.
+    let n = sheet.report.members.len();
+    let mut choices = Vec::new();
+    for drawing in [DRAWING_MAX, 240.0, 190.0, DRAWING_MIN] {
+        let fits = |k: usize| lay_out(sheet, paper, drawing, Members::Summary(k)).summary_pages == 1;
+        if !fits(0) {
+            continue;
+        }
+        // The most rows that keep the summary on page 1 (fitting is monotone in rows).
+        let (mut lo, mut hi) = (0, n);
+        while lo < hi {
+            let mid = (lo + hi).div_ceil(2);
+            if fits(mid) { lo = mid } else { hi = mid - 1 }
+        }
+        if lo == n {
+            return finish(lay_out(sheet, paper, drawing, Members::Summary(n)).pages, sheet, paper);
+        }
+        choices.push((drawing, lo));
+    }
+    let chosen = choices
+        .iter()
+        .find(|(_, rows)| *rows >= n.min(6))
+        .or(choices.last())
+        .map(|&(drawing, rows)| lay_out(sheet, paper, drawing, Members::Summary(rows)));
+    // Not even the summary fits on one page (a very long list of warnings, say): everything
+    // flows on from page 1.
+    let laid = chosen.unwrap_or_else(|| lay_out(sheet, paper, DRAWING_MAX, Members::All));
+    finish(laid.pages, sheet, paper)
+}
+
+/// Smallest and largest height of the drawing (pt).
+const DRAWING_MIN: f32 = 130.0;
+const DRAWING_MAX: f32 = 290.0;
+
+/// Which member rows page 1 shows.
+#[derive(Clone, Copy)]
+enum Members {
+    /// Every member, followed by the nodes.
+    All,
+    /// The `k` most utilised members on page 1; every member and the nodes from page 2.
+    Summary(usize),
+}
+
+/// Laid-out body pages, how many of them the summary part took, and the height left free at
+/// the foot of the last page (pt).
+struct Laid {
+    pages: Vec<Page>,
+    summary_pages: usize,
+    room: f32,
+}
+
+/// Members in order of concern: failing first, then by utilisation, highest first, the
+/// unchecked last; the project's order among equals.
+fn by_concern(sheet: &Sheet) -> Vec<usize> {
+    let members = &sheet.report.members;
+    let rank = |i: usize| match members[i].status {
+        Status::Fail => 0,
+        Status::Near | Status::Pass => 1,
+        Status::NotChecked => 2,
+    };
+    let mut order: Vec<usize> = (0..members.len()).collect();
+    order.sort_by(|&a, &b| {
+        rank(a).cmp(&rank(b)).then_with(|| {
+            let u = |i: usize| members[i].utilisation.unwrap_or(f64::NEG_INFINITY);
+            u(b).total_cmp(&u(a))
+        })
+    });
+    order
 }
 
 fn finish(mut pages: Vec<Page>, sheet: &Sheet, paper: Paper) -> Vec<Page> {
@@ -111,8 +181,8 @@ fn finish(mut pages: Vec<Page>, sheet: &Sheet, paper: Paper) -> Vec<Page> {
     pages
 }
 
-/// The body pages with the drawing `fraction` of the page body high (at most 300 pt).
-fn lay_out(sheet: &Sheet, paper: Paper, fraction: f32) -> Vec<Page> {
+/// The body pages with a drawing `drawing_h` high (pt).
+fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members) -> Laid {
     let (pw, ph) = paper.size();
     let largest = sheet
         .report
@@ -138,7 +208,6 @@ fn lay_out(sheet: &Sheet, paper: Paper, fraction: f32) -> Vec<Page> {
     };
     verdict(&mut flow, sheet);
     cases_table(&mut flow, sheet);
-    let drawing_h = ((flow.bottom - flow.top) * fraction).min(300.0);
     flow.ensure(drawing_h);
     let area = Area {
         x: flow.x,
@@ -160,19 +229,86 @@ fn lay_out(sheet: &Sheet, paper: Paper, fraction: f32) -> Vec<Page> {
         }
         flow.y += GAP - 1.5;
     }
-    members_table(&mut flow, sheet, &fmt);
-    nodes_table(&mut flow, sheet, &fmt);
+    let all: Vec<usize> = (0..sheet.report.members.len()).collect();
+    let title = "Members: checks across all load cases (force tension positive)";
+    match members {
+        Members::All => {
+            members_table(&mut flow, sheet, &fmt, &all, title);
+            nodes_table(&mut flow, sheet, &fmt);
+        }
+        Members::Summary(k) if k >= all.len() => {
+            members_table(&mut flow, sheet, &fmt, &all, title);
+            flow.paragraph(
+                "Nodes (drawn position, displacement, reaction): next page.",
+                7.0,
+                Weight::Regular,
+                0.0,
+            );
+            flow.y += GAP;
+        }
+        Members::Summary(k) => {
+            let mut rows = by_concern(sheet);
+            rows.truncate(k);
+            let n = all.len();
+            members_table(
+                &mut flow,
+                sheet,
+                &fmt,
+                &rows,
+                &format!("Members: the {k} most utilised of {n}, across all load cases (force tension positive)"),
+            );
+            flow.paragraph(
+                &format!("All {n} members, and the nodes (drawn position, displacement, reaction): next pages."),
+                7.0,
+                Weight::Regular,
+                0.0,
+            );
+            flow.y += GAP;
+        }
+    }
     let half = (flow.w - 12.0) / 2.0;
     match stiffness_block(sheet, &fmt, half) {
-        Some(k) => flow.pair(&modes_block(sheet, half), &k),
-        None => flow.block(&modes_block(sheet, half)),
+        Some(k) => {
+            flow.pair(&modes_block(sheet, half), &k);
+            flow.block(&design_block(sheet, flow.w));
+        }
+        // On a summary page the frequencies and the design basis share the width.
+        None if matches!(members, Members::Summary(_)) => flow.pair(&modes_block(sheet, half), &design_block(sheet, half)),
+        None => {
+            flow.block(&modes_block(sheet, half));
+            flow.block(&design_block(sheet, flow.w));
+        }
     }
-    design_block(&mut flow, sheet);
-    if !sheet.project.notes.trim().is_empty() {
-        flow.heading("Notes", 10.0);
-        flow.paragraph(&sheet.project.notes, 7.0, Weight::Regular, 0.0);
+    let notes = |flow: &mut Flow| {
+        if !sheet.project.notes.trim().is_empty() {
+            flow.heading("Notes", 10.0);
+            flow.paragraph(&sheet.project.notes, 7.0, Weight::Regular, 0.0);
+            flow.y += GAP;
+        }
+    };
+    if let Members::All = members {
+        notes(&mut flow);
     }
-    flow.pages
+    let summary_pages = flow.pages.len();
+    if let Members::Summary(k) = members {
+        flow.new_page();
+        notes(&mut flow);
+        if k < all.len() {
+            members_table(
+                &mut flow,
+                sheet,
+                &fmt,
+                &all,
+                "All members: checks across all load cases (force tension positive)",
+            );
+        }
+        nodes_table(&mut flow, sheet, &fmt);
+    }
+    Laid {
+        room: (flow.bottom - flow.y).max(0.0),
+        pages: flow.pages,
+        summary_pages,
+    }
 }
 
 fn verdict(flow: &mut Flow, sheet: &Sheet) {
@@ -281,14 +417,13 @@ fn rest_text(sheet: &Sheet, i: usize, fmt: &Fmt) -> Cell {
     }
 }
 
-fn members_table(flow: &mut Flow, sheet: &Sheet, fmt: &Fmt) {
+/// The member rows `rows` (indices into the report) under `title`.
+fn members_table(flow: &mut Flow, sheet: &Sheet, fmt: &Fmt, rows: &[usize], title: &str) {
     let fu = fmt.force_unit();
-    let rows = sheet
-        .report
-        .members
+    let rows = rows
         .iter()
-        .enumerate()
-        .map(|(i, m)| {
+        .map(|&i| {
+            let m = &sheet.report.members[i];
             let force = |f: &Option<(f64, String)>| match f {
                 Some((v, case)) => Cell::two(fmt.force(*v), format!("`{case}`")),
                 None => Cell::text("—"),
@@ -352,7 +487,7 @@ fn members_table(flow: &mut Flow, sheet: &Sheet, fmt: &Fmt) {
         rows,
         flow.w,
     );
-    flow.table("Members: checks across all load cases (force tension positive)", &table);
+    flow.table(title, &table);
 }
 
 fn nodes_table(flow: &mut Flow, sheet: &Sheet, fmt: &Fmt) {
@@ -585,12 +720,14 @@ fn stiffness_block(sheet: &Sheet, fmt: &Fmt, width: f32) -> Option<Block> {
     })
 }
 
-fn design_block(flow: &mut Flow, sheet: &Sheet) {
+/// The design factors and limits with their sources: a table at full width, a list of
+/// statements in a narrow column (so that no source is cut short).
+fn design_block(sheet: &Sheet, width: f32) -> Block {
     use rigwright_core::element::MemberClass;
     let df = &sheet.report.design_factors;
     let sizing = &sheet.project.sizing;
     let present = |c: MemberClass| sheet.model.members.iter().any(|m| m.kind.class() == c);
-    let mut rows: Vec<Vec<Cell>> = [MemberClass::Cable, MemberClass::Spring, MemberClass::Strut]
+    let mut items: Vec<(String, String, String)> = [MemberClass::Cable, MemberClass::Spring, MemberClass::Strut]
         .into_iter()
         .filter(|c| present(*c))
         .map(|c| {
@@ -601,32 +738,40 @@ fn design_block(flow: &mut Flow, sheet: &Sheet) {
             } else {
                 format!("set in the project (default {default}: {})", DesignFactors::source(c))
             };
-            vec![
-                Cell::bold(format!("{} design factor", c.name())),
-                Cell::text(format!("{v}")),
-                Cell::text(source),
-            ]
+            (format!("{} design factor", c.name()), format!("{v}"), source)
         })
         .collect();
     if present(MemberClass::Cable) {
-        rows.push(vec![
-            Cell::bold("cable termination efficiency"),
-            Cell::text(format!("{}", sizing.termination_efficiency)),
-            Cell::text("where a cable gives none; 0.8 is common practice for wire rope grips (from memory)"),
-        ]);
+        items.push((
+            "cable termination efficiency".into(),
+            format!("{}", sizing.termination_efficiency),
+            "where a cable gives none; 0.8 is common practice for wire rope grips (from memory)".into(),
+        ));
     }
-    rows.push(vec![
-        Cell::bold("near-limit utilisation"),
-        Cell::text(percent(sheet.report.near_limit)),
-        Cell::text("a passing member above this is reported as near limit"),
-    ]);
+    items.push((
+        "near-limit utilisation".into(),
+        percent(sheet.report.near_limit),
+        "a passing member above this is reported as near limit".into(),
+    ));
     if present(MemberClass::Cable) {
-        rows.push(vec![
-            Cell::bold("slack threshold"),
-            Cell::text(format!("{} N", sizing.slack_threshold)),
-            Cell::text("a cable not marked `may slacken` fails at or below this tension"),
-        ]);
+        items.push((
+            "slack threshold".into(),
+            format!("{} N", sizing.slack_threshold),
+            "a cable not marked `may slacken` fails at or below this tension".into(),
+        ));
     }
+    let title = "Design factors and limits".to_string();
+    if width < 400.0 {
+        let lines = items
+            .into_iter()
+            .map(|(name, value, source)| format!("{name}: {value} — {source}."))
+            .collect();
+        return Block { title, table: None, lines };
+    }
+    let rows = items
+        .into_iter()
+        .map(|(name, value, source)| vec![Cell::bold(name), Cell::text(value), Cell::text(source)])
+        .collect();
     let table = Table::new(
         vec![
             Column::new("design basis", Align::Left),
@@ -634,9 +779,13 @@ fn design_block(flow: &mut Flow, sheet: &Sheet) {
             Column::new("source", Align::Left),
         ],
         rows,
-        flow.w,
+        width,
     );
-    flow.table("Design factors and limits", &table);
+    Block {
+        title,
+        table: Some(table),
+        lines: Vec::new(),
+    }
 }
 
 /// A labelled field of the title block.

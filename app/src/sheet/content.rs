@@ -295,17 +295,8 @@ fn warnings(report: &CheckReport, drawn: usize) -> Vec<String> {
         }
     }
     let with = |status: Status| -> String {
-        let ids: Vec<String> = report
-            .members
-            .iter()
-            .filter(|m| m.status == status)
-            .map(|m| format!("`{}`", m.id))
-            .collect();
-        match ids.len() {
-            n if n == report.members.len() && n > 3 => format!("all {n} members"),
-            n if n > 12 => format!("{} and {} more", ids[..10].join(", "), n - 10),
-            _ => ids.join(", "),
-        }
+        let ids: Vec<String> = report.members.iter().filter(|m| m.status == status).map(|m| m.id.clone()).collect();
+        id_list(&ids, report.members.len())
     };
     let near = with(Status::Near);
     if !near.is_empty() {
@@ -320,20 +311,51 @@ fn warnings(report: &CheckReport, drawn: usize) -> Vec<String> {
             "Not checked (no catalogue entry, breaking force, spring design or section given): {unchecked}."
         ));
     }
+    // The same note on many members (a catalogue change, say) is one line naming them all.
+    let mut notes: Vec<(&str, Vec<String>)> = Vec::new();
     for m in &report.members {
         for note in &m.notes {
             // "no catalogue entry …" notes of unchecked members are in the list above.
-            if !(m.status == Status::NotChecked && note.starts_with("no ")) {
-                out.push(format!("Member `{}`: {note}.", m.id));
+            if m.status == Status::NotChecked && note.starts_with("no ") {
+                continue;
+            }
+            match notes.iter_mut().find(|(n, _)| *n == note.as_str()) {
+                Some((_, ids)) => ids.push(m.id.clone()),
+                None => notes.push((note, vec![m.id.clone()])),
             }
         }
     }
+    for (note, ids) in notes {
+        let word = if ids.len() == 1 { "Member" } else { "Members" };
+        out.push(format!("{word} {}: {note}.", id_list(&ids, report.members.len())));
+    }
     out
+}
+
+/// Member ids for a statement: all of them, or "all N members", or the first ten and a count.
+fn id_list(ids: &[String], members: usize) -> String {
+    let quoted: Vec<String> = ids.iter().map(|id| format!("`{id}`")).collect();
+    match quoted.len() {
+        n if n == members && n > 3 => format!("all {n} members"),
+        n if n > 12 => format!("{} and {} more", quoted[..10].join(", "), n - 10),
+        _ => quoted.join(", "),
+    }
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn long_lists_of_members_are_shortened() {
+        let ids: Vec<String> = (1..=14).map(|i| format!("c{i}")).collect();
+        assert_eq!(id_list(&ids[..2], 20), "`c1`, `c2`");
+        assert_eq!(id_list(&ids, 14), "all 14 members");
+        assert_eq!(
+            id_list(&ids, 20),
+            "`c1`, `c2`, `c3`, `c4`, `c5`, `c6`, `c7`, `c8`, `c9`, `c10` and 4 more"
+        );
+    }
 
     #[test]
     fn day_counts_map_to_known_dates() {

@@ -291,6 +291,39 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
             page.text((mid.0, mid.1 + 2.0), Style::new(5.5, Weight::Regular, Ink::Mid), align, &m.id);
         }
     }
+    // Labels already on the drawing: the load labels go first, then node ids where they do
+    // not overlap one.
+    let mut labels = Placed::default();
+    // Point loads of the case, arrows ending on the node.
+    let case = &model.cases[sheet.case];
+    for (node, f) in &case.loads {
+        let p = shown[*node];
+        let fuv = uv(f);
+        let len = (fuv[0] * fuv[0] + fuv[1] * fuv[1]).sqrt();
+        let label = if len < 1e-9 * f.norm().max(1.0) {
+            format!("{} out of plane", fmt.force_u(f.norm()))
+        } else {
+            fmt.force_u(f.norm())
+        };
+        let d = if len > 0.0 {
+            (fuv[0] as f32 / len as f32, -fuv[1] as f32 / len as f32)
+        } else {
+            (0.0, 1.0)
+        };
+        let tail = at(p, d, -ARROW);
+        page.line(tail, at(p, d, -3.0), Pen::solid(1.0, Ink::Black));
+        arrow_head(page, at(p, d, -2.5), d, 5.0, Ink::Black);
+        let align = if d.0 > 0.3 {
+            Align::Right
+        } else if d.0 < -0.3 {
+            Align::Left
+        } else {
+            Align::Centre
+        };
+        let ty = if d.1 > 0.3 { tail.1 - 3.0 } else { tail.1 + 8.0 };
+        page.text((tail.0, ty), Style::new(6.5, Weight::Bold, Ink::Black), align, &label);
+        labels.place(text_box((tail.0, ty), 6.5, align, &label));
+    }
     // Nodes, supports and node ids.
     let mut away = vec![(0.0f32, 0.0f32); model.nodes.len()];
     for m in &model.members {
@@ -300,6 +333,11 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         }
     }
     let label_small = model.nodes.len() > 30;
+    let mut left_out = 0;
+    // Node ids keep off the nodes themselves.
+    for p in shown.iter() {
+        labels.place((p.0 - 2.5, p.1 - 2.5, p.0 + 2.5, p.1 + 2.5));
+    }
     // Nodes that fall on one point of the drawing share one label.
     let mut label: Vec<Option<String>> = model.nodes.iter().map(|n| Some(n.id.clone())).collect();
     for i in 0..model.nodes.len() {
@@ -342,37 +380,13 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         let align = if dir.0 < 0.0 { Align::Right } else { Align::Left };
         let size = if label_small { 5.0 } else { 6.5 };
         if let Some(l) = &label[i] {
-            page.text((q.0, q.1 + 2.3 + dir.1 * 2.0), Style::new(size, Weight::Bold, Ink::Black), align, l);
+            let at = (q.0, q.1 + 2.3 + dir.1 * 2.0);
+            if labels.place(text_box(at, size, align, l)) {
+                page.text(at, Style::new(size, Weight::Bold, Ink::Black), align, l);
+            } else {
+                left_out += 1;
+            }
         }
-    }
-    // Point loads of the case, arrows ending on the node.
-    let case = &model.cases[sheet.case];
-    for (node, f) in &case.loads {
-        let p = shown[*node];
-        let fuv = uv(f);
-        let len = (fuv[0] * fuv[0] + fuv[1] * fuv[1]).sqrt();
-        let label = if len < 1e-9 * f.norm().max(1.0) {
-            format!("{} out of plane", fmt.force_u(f.norm()))
-        } else {
-            fmt.force_u(f.norm())
-        };
-        let d = if len > 0.0 {
-            (fuv[0] as f32 / len as f32, -fuv[1] as f32 / len as f32)
-        } else {
-            (0.0, 1.0)
-        };
-        let tail = at(p, d, -ARROW);
-        page.line(tail, at(p, d, -3.0), Pen::solid(1.0, Ink::Black));
-        arrow_head(page, at(p, d, -2.5), d, 5.0, Ink::Black);
-        let align = if d.0 > 0.3 {
-            Align::Right
-        } else if d.0 < -0.3 {
-            Align::Left
-        } else {
-            Align::Centre
-        };
-        let ty = if d.1 > 0.3 { tail.1 - 3.0 } else { tail.1 + 8.0 };
-        page.text((tail.0, ty), Style::new(6.5, Weight::Bold, Ink::Black), align, &label);
     }
     // Overall dimensions of the drawn geometry.
     let left = (cx + s * lo[0]) as f32;
@@ -466,8 +480,13 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         Plane::Side => "side view, z to the right, y up",
         Plane::Plan => "plan, x to the right, z down",
     };
+    let omitted = match left_out {
+        0 => String::new(),
+        1 => " One node id left out where crowded.".to_string(),
+        n => format!(" {n} node ids left out where crowded."),
+    };
     let line1 = format!(
-        "Rig, {view_name}. Dashed grey: geometry as drawn. Solid: equilibrium of load case `{}`.",
+        "Rig, {view_name}. Dashed grey: geometry as drawn. Solid: equilibrium of load case `{}`.{omitted}",
         case.name
     );
     let line2 = match eq {
@@ -493,6 +512,33 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
             Align::Left,
             &l,
         );
+    }
+}
+
+/// A text's box (x0, y0, x1, y1) on the page from its baseline point, size and alignment.
+fn text_box(at: (f32, f32), size: f32, align: Align, text: &str) -> (f32, f32, f32, f32) {
+    let w = fonts::width(text, size, Weight::Bold);
+    let x0 = match align {
+        Align::Left => at.0,
+        Align::Right => at.0 - w,
+        Align::Centre => at.0 - w / 2.0,
+    };
+    (x0, at.1 - size, x0 + w, at.1 + 0.25 * size)
+}
+
+/// Boxes of the labels placed so far on a drawing.
+#[derive(Default)]
+struct Placed(Vec<(f32, f32, f32, f32)>);
+
+impl Placed {
+    /// Keeps `b` and returns true when it overlaps no box kept before (a drawing holds at most a
+    /// few hundred labels, so a plain list does).
+    fn place(&mut self, b: (f32, f32, f32, f32)) -> bool {
+        let free = self.0.iter().all(|p| b.2 <= p.0 || p.2 <= b.0 || b.3 <= p.1 || p.3 <= b.1);
+        if free {
+            self.0.push(b);
+        }
+        free
     }
 }
 

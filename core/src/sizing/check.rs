@@ -512,16 +512,15 @@ fn check_strut(m: &mut MemberCheck, design: &MemberDesign, forces: &[(f64, f64, 
         sec.modulus, sec.second_moment, sec.length_factor
     ));
     let euler = |length: f64| std::f64::consts::PI.powi(2) * sec.modulus * sec.second_moment / (sec.length_factor * length).powi(2);
+    // The capacity shown in tables is the one of the check that governs.
+    let mut capacities: Vec<(Capacity, f64)> = Vec::new();
     // Governing buckling case: the largest compression over its Euler load at that length.
     if let Some((f, length, case)) = worst(forces, |f| -f.0 / euler(f.1))
         && f < 0.0
     {
         let p = euler(length);
-        m.capacity = Some(Capacity {
-            value: p,
-            unit: "N",
-            what: "Euler load",
-        });
+        let what = "Euler load";
+        capacities.push((Capacity { value: p, unit: "N", what }, -f / p));
         m.lines.push(ratio_line(
             "buckling",
             case,
@@ -538,13 +537,15 @@ fn check_strut(m: &mut MemberCheck, design: &MemberDesign, forces: &[(f64, f64, 
     if let Some(cap) = sec.capacity
         && let Some((f, _, case)) = worst(forces, |f| f.0.abs())
     {
-        if m.capacity.is_none() {
-            m.capacity = Some(Capacity {
+        let what = "axial capacity";
+        capacities.push((
+            Capacity {
                 value: cap,
                 unit: "N",
-                what: "axial capacity",
-            });
-        }
+                what,
+            },
+            f.abs() / cap,
+        ));
         m.lines.push(ratio_line(
             "capacity",
             case,
@@ -554,6 +555,7 @@ fn check_strut(m: &mut MemberCheck, design: &MemberDesign, forces: &[(f64, f64, 
             "|F|·DF against the given capacity".into(),
         ));
     }
+    m.capacity = capacities.into_iter().max_by(|a, b| a.1.total_cmp(&b.1)).map(|(c, _)| c);
 }
 
 /// Sets the member's status, utilisation and governing line from its lines; `all_cases`
