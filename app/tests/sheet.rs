@@ -287,10 +287,19 @@ fn csv_columns_carry_units_and_hold_the_solver_forces() {
         assert!((got - f).abs() <= 1e-9 * f, "{id}: {got} vs {f}");
         assert_eq!(row[col("design_factor")], "5");
     }
-    // Reactions balance the loads of the case (45 kg sign, 250 N gust).
+    // Reactions balance the loads of the case (45 kg sign, the ropes' own weight over their
+    // unstressed lengths, 250 N gust): statics of the whole rig.
+    let (project, model) = Project::load_model(&file).unwrap();
+    let ropes: f64 = project
+        .members
+        .iter()
+        .zip(&model.members)
+        .map(|(d, m)| d.mass_per_length * m.kind.rest_length())
+        .sum();
+    assert!(ropes > 0.0, "the fixture's ropes carry their weight");
     let head: Vec<&str> = n.lines().next().unwrap().split(',').collect();
     let col = |name: &str| head.iter().position(|h| *h == name).unwrap();
-    let mut sum = [250.0, -45.0 * 9.81];
+    let mut sum = [250.0, -(45.0 + ropes) * 9.81];
     for l in n.lines().skip(1) {
         let row = fields(l);
         for (k, c) in ["rx_N", "ry_N"].iter().enumerate() {

@@ -320,7 +320,7 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         } else {
             Align::Centre
         };
-        let ty = if d.1 > 0.3 { tail.1 - 3.0 } else { tail.1 + 8.0 };
+        let ty = if d.1 > 0.3 { tail.1 - 3.0 } else { tail.1 + 10.0 };
         page.text((tail.0, ty), Style::new(6.5, Weight::Bold, Ink::Black), align, &label);
         labels.place(text_box((tail.0, ty), 6.5, align, &label));
     }

@@ -293,6 +293,13 @@ fn worst<'a>(forces: &[(f64, f64, &'a str)], f: impl Fn(&(f64, f64, &str)) -> f6
     forces.iter().copied().max_by(|a, b| f(a).total_cmp(&f(b)))
 }
 
+/// `v` to six decimals without trailing zeros ("0.144", not "0.14400000000000002").
+fn six_decimals(v: f64) -> String {
+    let s = format!("{v:.6}");
+    let s = s.trim_end_matches('0').trim_end_matches('.');
+    if s == "-0" { "0".into() } else { s.to_string() }
+}
+
 fn check_cable(
     m: &mut MemberCheck,
     design: &MemberDesign,
@@ -319,8 +326,9 @@ fn check_cable(
                 }
                 if (part.mass_per_length - mass_per_length).abs() > 1e-6 * part.mass_per_length.max(1e-9) {
                     m.notes.push(format!(
-                        "mass per length {mass_per_length} kg/m differs from the part's {} kg/m; assign the part again",
-                        part.mass_per_length
+                        "mass per length {} kg/m differs from the part's {} kg/m; assign the part again",
+                        six_decimals(mass_per_length),
+                        six_decimals(part.mass_per_length)
                     ));
                 }
                 Some(part.breaking_force)
@@ -592,4 +600,18 @@ fn incomplete(m: &MemberCheck) -> bool {
     m.notes
         .iter()
         .any(|n| n.starts_with("no axial capacity") || n.starts_with("hook stresses"))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::six_decimals;
+
+    #[test]
+    fn numbers_in_notes_drop_float_noise_and_trailing_zeros() {
+        assert_eq!(six_decimals(0.144_000_000_000_000_02), "0.144");
+        assert_eq!(six_decimals(0.0), "0");
+        assert_eq!(six_decimals(2.5), "2.5");
+        assert_eq!(six_decimals(-1e-9), "0");
+        assert_eq!(six_decimals(0.1440016), "0.144002");
+    }
 }
