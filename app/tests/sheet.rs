@@ -489,3 +489,15 @@ fn page_one_summarises_and_the_complete_tables_follow() {
         }
     }
 }
+
+/// A stopped build gives up with its own message instead of finishing the work (the app's
+/// Cancel on a large rig's Sheet).
+#[test]
+fn a_stopped_sheet_build_says_so() {
+    let project = Project::load(&sample("canopy-net-6x6.rig.ron")).unwrap();
+    let watch = rigwright_core::Watch::new();
+    watch.stop();
+    let built = Sheet::build_watched(&project, b"", &SheetOptions::default(), &watch);
+    assert_eq!(built.err().as_deref(), Some(rigwright::sheet::STOPPED));
+    assert!(Sheet::build_watched(&project, b"", &SheetOptions::default(), &rigwright_core::Watch::new()).is_ok());
+}

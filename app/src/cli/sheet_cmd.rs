@@ -90,9 +90,10 @@ fn unsolved(sheet: &Sheet, what: &str) -> Result<(), Failure> {
 pub fn sheet(file: &Path, output: &Path, case: Option<String>, paper: &str, stiffness: Vec<String>, info: InfoArgs) -> Result<(), Failure> {
     let paper = Paper::parse(paper).ok_or_else(|| Failure::input(format!("paper `{paper}`: use a4 or letter")))?;
     let sheet = build(file, case, stiffness, info.into_info())?;
-    let pdf = sheet.to_pdf(paper).map_err(Failure::input)?;
+    let laid = sheet.pages(paper);
+    let pdf = sheet.pdf_of(&laid, paper).map_err(Failure::input)?;
     write(output, &pdf)?;
-    let pages = sheet.pages(paper).len();
+    let pages = laid.len();
     eprintln!("{}: {} page(s), {}", output.display(), pages, sheet.verdict());
     unsolved(&sheet, &format!("the sheet {} was written", output.display()))
 }

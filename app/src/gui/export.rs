@@ -4,6 +4,7 @@
 use std::path::{Path, PathBuf};
 
 use crate::sheet::{Paper, Sheet, SheetOptions, export};
+use rigwright_core::Watch;
 
 use super::RigApp;
 
@@ -86,8 +87,8 @@ type Output = (Vec<(PathBuf, Vec<u8>)>, String, bool);
 
 /// Builds the sheet and renders `kind` for writing to `path` (for the CSV, `path` is the
 /// members file; the nodes file goes beside it). The slow part, safe on any thread.
-fn render(inputs: &SheetInputs, kind: ExportKind, path: &Path) -> Result<Output, String> {
-    let sheet = Sheet::build(&inputs.project, &inputs.bytes, &inputs.options)?;
+fn render(inputs: &SheetInputs, kind: ExportKind, path: &Path, watch: &Watch) -> Result<Output, String> {
+    let sheet = Sheet::build_watched(&inputs.project, &inputs.bytes, &inputs.options, watch)?;
     match kind {
         ExportKind::Sheet(paper) => Ok((
             vec![(path.to_path_buf(), sheet.to_pdf(paper)?)],
@@ -142,7 +143,7 @@ fn put_all((files, done, warning): Output) -> Result<String, String> {
 
 /// Writes `kind` for the open document to `path`, now. Returns what was written.
 pub fn write(app: &RigApp, kind: ExportKind, path: &Path) -> Result<String, String> {
-    render(&sheet_inputs(app), kind, path).and_then(put_all)
+    render(&sheet_inputs(app), kind, path, &Watch::new()).and_then(put_all)
 }
 
 /// Asks where to write, then writes (beside the window on a large rig); the outcome goes to
@@ -165,8 +166,9 @@ pub fn run(app: &mut RigApp, kind: ExportKind) {
         ExportKind::Csv => "Exporting CSV",
         ExportKind::Json => "Exporting JSON",
     };
-    super::task::start(app, what, move |_watch| {
-        let rendered = render(&inputs, kind, &path);
+    // A cancelled task stops the build at its next step; its result is dropped unwritten.
+    super::task::start(app, what, move |watch| {
+        let rendered = render(&inputs, kind, &path, &watch);
         Box::new(move |app: &mut RigApp| {
             app.message = Some(match rendered {
                 Err(e) => (format!("Nothing exported: {e}"), true),

@@ -23,6 +23,8 @@ const GAP: f32 = 8.0;
 
 /// Pages being filled top to bottom.
 struct Flow {
+    /// Only finding out whether the summary fits on page 1: nothing past page 1 is laid out.
+    measure: bool,
     pages: Vec<Page>,
     y: f32,
     top: f32,
@@ -70,11 +72,22 @@ impl Flow {
         }
     }
 
+    /// True when measuring and page 1 is already full.
+    fn past_page_one(&self) -> bool {
+        self.measure && self.pages.len() > 1
+    }
+
     fn table(&mut self, title: &str, table: &Table) {
+        if self.past_page_one() {
+            return;
+        }
         let first = if table.rows.is_empty() { 0.0 } else { table.row_height(0) };
         self.heading(title, table.head_height() + first);
         self.y = table.draw_head(self.pages.last_mut().expect("page"), self.x, self.y);
         for r in 0..table.rows.len() {
+            if self.past_page_one() {
+                return;
+            }
             let h = table.row_height(r);
             if self.y + h > self.bottom {
                 self.new_page();
@@ -94,30 +107,35 @@ impl Flow {
 /// member and node tables follow on the next pages.
 pub fn pages(sheet: &Sheet, paper: Paper) -> Vec<Page> {
     // One page: the drawing takes what the rest leaves, between its smallest and largest size.
-    let least = lay_out(sheet, paper, DRAWING_MIN, Members::All);
-    if least.pages.len() == 1 {
+    let n = sheet.report.members.len();
+    let most_rows = MOST_ROWS_ON_A_PAGE;
+    let least = (n + sheet.model.nodes.len() <= most_rows).then(|| lay_out(sheet, paper, DRAWING_MIN, Members::All, Pass::Measure));
+    if let Some(least) = least.filter(|l| l.pages.len() == 1) {
         let grown = (DRAWING_MIN + least.room).min(DRAWING_MAX);
-        let laid = lay_out(sheet, paper, grown, Members::All);
-        let laid = if laid.pages.len() == 1 { laid } else { least };
+        let laid = lay_out(sheet, paper, grown, Members::All, Pass::Full);
+        let laid = if laid.pages.len() == 1 {
+            laid
+        } else {
+            lay_out(sheet, paper, DRAWING_MIN, Members::All, Pass::Full)
+        };
         return finish(laid.pages, sheet, paper);
     }
     // A summary on page 1: every member when they fit beside a drawing of some size, else as
     // many of the most utilised as fit beside the largest drawing that leaves room for a few.
-    let n = sheet.report.members.len();
     let mut choices = Vec::new();
     for drawing in [DRAWING_MAX, 240.0, 190.0, DRAWING_MIN] {
-        let fits = |k: usize| lay_out(sheet, paper, drawing, Members::Summary(k)).summary_pages == 1;
+        let fits = |k: usize| lay_out(sheet, paper, drawing, Members::Summary(k), Pass::Measure).summary_pages == 1;
         if !fits(0) {
             continue;
         }
         // The most rows that keep the summary on page 1 (fitting is monotone in rows).
-        let (mut lo, mut hi) = (0, n);
+        let (mut lo, mut hi) = (0, n.min(most_rows));
         while lo < hi {
             let mid = (lo + hi).div_ceil(2);
             if fits(mid) { lo = mid } else { hi = mid - 1 }
         }
         if lo == n {
-            return finish(lay_out(sheet, paper, drawing, Members::Summary(n)).pages, sheet, paper);
+            return finish(lay_out(sheet, paper, drawing, Members::Summary(n), Pass::Full).pages, sheet, paper);
         }
         choices.push((drawing, lo));
     }
@@ -125,12 +143,16 @@ pub fn pages(sheet: &Sheet, paper: Paper) -> Vec<Page> {
         .iter()
         .find(|(_, rows)| *rows >= n.min(6))
         .or(choices.last())
-        .map(|&(drawing, rows)| lay_out(sheet, paper, drawing, Members::Summary(rows)));
+        .map(|&(drawing, rows)| lay_out(sheet, paper, drawing, Members::Summary(rows), Pass::Full));
     // Not even the summary fits on one page (a very long list of warnings, say): everything
     // flows on from page 1.
-    let laid = chosen.unwrap_or_else(|| lay_out(sheet, paper, DRAWING_MAX, Members::All));
+    let laid = chosen.unwrap_or_else(|| lay_out(sheet, paper, DRAWING_MAX, Members::All, Pass::Full));
     finish(laid.pages, sheet, paper)
 }
+
+/// More table rows than ever fit on one page: a row is at least 12 pt high (5.5 pt type) and no
+/// page body is 720 pt high. Bounds the search for the rows of page 1 on large rigs.
+const MOST_ROWS_ON_A_PAGE: usize = 60;
 
 /// Smallest and largest height of the drawing (pt).
 const DRAWING_MIN: f32 = 130.0;
@@ -143,6 +165,13 @@ enum Members {
     All,
     /// The `k` most utilised members on page 1; every member and the nodes from page 2.
     Summary(usize),
+}
+
+/// A layout to look at, or only to measure page 1 (much faster on a large rig).
+#[derive(Clone, Copy, PartialEq, Eq)]
+enum Pass {
+    Measure,
+    Full,
 }
 
 /// Laid-out body pages, how many of them the summary part took, and the height left free at
@@ -182,7 +211,7 @@ fn finish(mut pages: Vec<Page>, sheet: &Sheet, paper: Paper) -> Vec<Page> {
 }
 
 /// The body pages with a drawing `drawing_h` high (pt).
-fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members) -> Laid {
+fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members, pass: Pass) -> Laid {
     let (pw, ph) = paper.size();
     let largest = sheet
         .report
@@ -199,6 +228,7 @@ fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members) -> Lai
     let fmt = Fmt::new(sheet.units, largest);
     let top = MARGIN + TITLE_H + GAP;
     let mut flow = Flow {
+        measure: pass == Pass::Measure,
         pages: vec![Page::default()],
         y: top,
         top,
@@ -290,7 +320,7 @@ fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members) -> Lai
         notes(&mut flow);
     }
     let summary_pages = flow.pages.len();
-    if let Members::Summary(k) = members {
+    if let (Members::Summary(k), Pass::Full) = (members, pass) {
         flow.new_page();
         notes(&mut flow);
         if k < all.len() {

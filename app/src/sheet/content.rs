@@ -4,10 +4,10 @@
 //! drawn and tabulated, the modes and the stiffness at marked nodes, the plain-language
 //! warnings and the traceability data. Not responsible for where anything goes on the page.
 
-use rigwright_core::dynamics::{Modes, modes};
+use rigwright_core::dynamics::{Modes, modes_watched};
 use rigwright_core::model::{SheetInfo, UnitSystem};
-use rigwright_core::sizing::{Catalogue, CheckReport, Status, check, project_catalogue, solve_cases};
-use rigwright_core::{Equilibrium, Model, NodeStiffness, Project, Statics};
+use rigwright_core::sizing::{Catalogue, CheckReport, Status, check, project_catalogue, solve_cases_watched};
+use rigwright_core::{Equilibrium, Model, NodeStiffness, Project, Statics, Watch};
 use sha2::{Digest, Sha256};
 
 use crate::gui::units::Units;
@@ -112,11 +112,20 @@ fn merge(base: &SheetInfo, over: &SheetInfo) -> SheetInfo {
     info
 }
 
+/// What [`Sheet::build_watched`] says when it was stopped.
+pub const STOPPED: &str = "stopped before the sheet was made";
+
 impl Sheet {
     /// Validates the project, solves every case, checks every member and gathers the rest.
     /// `bytes` are the project file as stored (hashed for traceability). Fails with a message
     /// for bad input: an invalid project, an unknown case or node.
     pub fn build(project: &Project, bytes: &[u8], options: &SheetOptions) -> Result<Sheet, String> {
+        Sheet::build_watched(project, bytes, options, &Watch::new())
+    }
+
+    /// [`Sheet::build`] that gives up with [`STOPPED`] once `watch` is stopped (checked after
+    /// the load cases are solved and between the Lanczos blocks of the modes).
+    pub fn build_watched(project: &Project, bytes: &[u8], options: &SheetOptions, watch: &Watch) -> Result<Sheet, String> {
         let model = project.validate().map_err(|e| e.to_string())?;
         let case_names = || model.cases.iter().map(|c| format!("`{}`", c.name)).collect::<Vec<_>>().join(", ");
         let asked = match &options.case {
@@ -142,7 +151,10 @@ impl Sheet {
             marked.push((id.clone(), i));
         }
         let catalogue = project_catalogue(project, &Catalogue::default());
-        let report = check(project, &model, &catalogue, solve_cases(&model));
+        let report = check(project, &model, &catalogue, solve_cases_watched(&model, watch));
+        if watch.stopped() {
+            return Err(STOPPED.into());
+        }
         let (case, choice) = match asked {
             Some(i) => (i, CaseChoice::Chosen),
             None => governing_case(&model, &report),
@@ -157,7 +169,7 @@ impl Sheet {
             )
         };
         let modes = match eq {
-            Some(eq) => modes(&statics, eq, MODE_COUNT).map_err(|e| e.to_string()),
+            Some(eq) => modes_watched(&statics, eq, MODE_COUNT, &watch.child()).map_err(|e| e.to_string()),
             None => Err(why_none()),
         };
         let stiffness = marked
@@ -170,6 +182,9 @@ impl Sheet {
                 (id, k)
             })
             .collect();
+        if watch.stopped() {
+            return Err(STOPPED.into());
+        }
         let units = match project.units {
             UnitSystem::SI => Units::Si,
             UnitSystem::US => Units::Us,

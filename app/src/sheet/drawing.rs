@@ -338,19 +338,31 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
     for p in shown.iter() {
         labels.place((p.0 - 2.5, p.1 - 2.5, p.0 + 2.5, p.1 + 2.5));
     }
-    // Nodes that fall on one point of the drawing share one label.
+    // Nodes that fall on one point of the drawing share one label: "a / b", or "a +3" for more.
     let mut label: Vec<Option<String>> = model.nodes.iter().map(|n| Some(n.id.clone())).collect();
+    let mut sharing = vec![1usize; model.nodes.len()];
     for i in 0..model.nodes.len() {
         for j in 0..i {
             let d = sub(shown[i], shown[j]);
             if label[j].is_some() && d.0.abs() < 2.0 && d.1.abs() < 2.0 {
                 let id = label[i].take().unwrap_or_default();
-                if let Some(l) = label[j].as_mut() {
+                sharing[j] += 1;
+                if sharing[j] == 2
+                    && let Some(l) = label[j].as_mut()
+                {
                     l.push_str(" / ");
                     l.push_str(&id);
                 }
                 break;
             }
+        }
+    }
+    for (l, &k) in label.iter_mut().zip(&sharing) {
+        if k > 2
+            && let Some(l) = l.as_mut()
+        {
+            let first = l.split(" / ").next().unwrap_or_default().to_string();
+            *l = format!("{first} +{}", k - 1);
         }
     }
     for (i, node) in model.nodes.iter().enumerate() {

@@ -17,7 +17,7 @@ mod table;
 
 pub use compose::CAUTIONS;
 pub(crate) use content::civil_from_days;
-pub use content::{CaseChoice, MODE_COUNT, Sheet, SheetOptions, sha256_hex, today};
+pub use content::{CaseChoice, MODE_COUNT, STOPPED, Sheet, SheetOptions, sha256_hex, today};
 pub use page::{Op, Page, Paper};
 
 impl Sheet {
@@ -28,11 +28,16 @@ impl Sheet {
 
     /// The sheet as PDF bytes.
     pub fn to_pdf(&self, paper: Paper) -> Result<Vec<u8>, String> {
+        self.pdf_of(&self.pages(paper), paper)
+    }
+
+    /// PDF bytes of pages already laid out with [`Sheet::pages`].
+    pub fn pdf_of(&self, pages: &[Page], paper: Paper) -> Result<Vec<u8>, String> {
         let title = if self.project.title.is_empty() {
             "Rigwright sheet".to_string()
         } else {
             format!("{} — Rigwright sheet", self.project.title)
         };
-        page::render(&self.pages(paper), paper, &title)
+        page::render(pages, paper, &title)
     }
 }
