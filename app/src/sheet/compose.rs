@@ -123,7 +123,7 @@ pub fn pages(sheet: &Sheet, paper: Paper) -> Vec<Page> {
     // A summary on page 1: every member when they fit beside a drawing of some size, else as
     // many of the most utilised as fit beside the largest drawing that leaves room for a few.
     let mut choices = Vec::new();
-    for drawing in [DRAWING_MAX, 240.0, 190.0, DRAWING_MIN] {
+    for drawing in [DRAWING_MAX, 240.0, 200.0, DRAWING_MIN] {
         let fits = |k: usize| lay_out(sheet, paper, drawing, Members::Summary(k), Pass::Measure).summary_pages == 1;
         if !fits(0) {
             continue;
@@ -139,9 +139,13 @@ pub fn pages(sheet: &Sheet, paper: Paper) -> Vec<Page> {
         }
         choices.push((drawing, lo));
     }
+    // Every failing member on page 1 when it can be; those that do not fit are named below
+    // the table.
+    let fails = sheet.report.members.iter().filter(|m| m.status == Status::Fail).count();
+    let wanted = n.min(6).max(fails.min(most_rows));
     let chosen = choices
         .iter()
-        .find(|(_, rows)| *rows >= n.min(6))
+        .find(|(_, rows)| *rows >= wanted)
         .or(choices.last())
         .map(|&(drawing, rows)| lay_out(sheet, paper, drawing, Members::Summary(rows), Pass::Full));
     // Not even the summary fits on one page (a very long list of warnings, say): everything
@@ -155,7 +159,7 @@ pub fn pages(sheet: &Sheet, paper: Paper) -> Vec<Page> {
 const MOST_ROWS_ON_A_PAGE: usize = 60;
 
 /// Smallest and largest height of the drawing (pt).
-const DRAWING_MIN: f32 = 130.0;
+const DRAWING_MIN: f32 = 160.0;
 const DRAWING_MAX: f32 = 290.0;
 
 /// Which member rows page 1 shows.
@@ -182,24 +186,21 @@ struct Laid {
     room: f32,
 }
 
-/// Members in order of concern: failing first, then by utilisation, highest first, the
-/// unchecked last; the project's order among equals.
+/// Members in order of concern: failing first, then by utilisation, highest first (whatever
+/// their status), those without one last; the project's order among equals.
 fn by_concern(sheet: &Sheet) -> Vec<usize> {
     let members = &sheet.report.members;
-    let rank = |i: usize| match members[i].status {
-        Status::Fail => 0,
-        Status::Near | Status::Pass => 1,
-        Status::NotChecked => 2,
-    };
     let mut order: Vec<usize> = (0..members.len()).collect();
     order.sort_by(|&a, &b| {
-        rank(a).cmp(&rank(b)).then_with(|| {
-            let u = |i: usize| members[i].utilisation.unwrap_or(f64::NEG_INFINITY);
-            u(b).total_cmp(&u(a))
-        })
+        let fails = |i: usize| members[i].status == Status::Fail;
+        let u = |i: usize| members[i].utilisation.unwrap_or(f64::NEG_INFINITY);
+        fails(b).cmp(&fails(a)).then_with(|| u(b).total_cmp(&u(a)))
     });
     order
 }
+
+/// Warnings printed on a summary page; the rest are listed on the next pages.
+const SUMMARY_WARNINGS: usize = 6;
 
 fn finish(mut pages: Vec<Page>, sheet: &Sheet, paper: Paper) -> Vec<Page> {
     let n = pages.len();
@@ -247,17 +248,17 @@ fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members, pass: 
     };
     drawing::draw(flow.page(), sheet, &fmt, area, paper);
     flow.y += drawing_h + GAP;
-    if !sheet.warnings.is_empty() {
-        flow.heading("Warnings", 20.0);
-        for w in &sheet.warnings {
-            flow.ensure(10.0);
-            let (x, y) = (flow.x, flow.y);
-            flow.page()
-                .text((x + 2.0, y + 7.0), Style::new(7.0, Weight::Bold, Ink::Black), Align::Left, "!");
-            flow.paragraph(w, 7.0, Weight::Regular, 10.0);
-            flow.y += 1.5;
-        }
-        flow.y += GAP - 1.5;
+    let summary = matches!(members, Members::Summary(_));
+    let shown = if summary {
+        sheet.warnings.len().min(SUMMARY_WARNINGS)
+    } else {
+        sheet.warnings.len()
+    };
+    warnings_block(&mut flow, &sheet.warnings[..shown], "Warnings");
+    if shown < sheet.warnings.len() {
+        let more = sheet.warnings.len() - shown;
+        flow.paragraph(&format!("{more} more warning(s): next page."), 7.0, Weight::Bold, 10.0);
+        flow.y += GAP;
     }
     let all: Vec<usize> = (0..sheet.report.members.len()).collect();
     let title = "Members: checks across all load cases (force tension positive)";
@@ -268,16 +269,16 @@ fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members, pass: 
         }
         Members::Summary(k) if k >= all.len() => {
             members_table(&mut flow, sheet, &fmt, &all, title);
-            flow.paragraph(
-                "Nodes (drawn position, displacement, reaction): next page.",
-                7.0,
-                Weight::Regular,
-                0.0,
-            );
+            flow.paragraph(&format!("{}: next page.", later(sheet, false)), 7.0, Weight::Regular, 0.0);
             flow.y += GAP;
         }
         Members::Summary(k) => {
             let mut rows = by_concern(sheet);
+            let left_off: Vec<String> = rows[k.min(rows.len())..]
+                .iter()
+                .filter(|&&i| sheet.report.members[i].status == Status::Fail)
+                .map(|&i| sheet.report.members[i].id.clone())
+                .collect();
             rows.truncate(k);
             let n = all.len();
             members_table(
@@ -285,14 +286,17 @@ fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members, pass: 
                 sheet,
                 &fmt,
                 &rows,
-                &format!("Members: the {k} most utilised of {n}, across all load cases (force tension positive)"),
+                &format!("Members of most concern, {k} of {n}: failing first, then by utilisation (force tension positive)"),
             );
-            flow.paragraph(
-                &format!("All {n} members, and the nodes (drawn position, displacement, reaction): next pages."),
-                7.0,
-                Weight::Regular,
-                0.0,
-            );
+            if !left_off.is_empty() {
+                flow.paragraph(
+                    &format!("Also FAILING, not listed above: {}.", super::content::id_list(&left_off, n)),
+                    7.5,
+                    Weight::Bold,
+                    0.0,
+                );
+            }
+            flow.paragraph(&format!("{}: next pages.", later(sheet, true)), 7.0, Weight::Regular, 0.0);
             flow.y += GAP;
         }
     }
@@ -302,12 +306,8 @@ fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members, pass: 
             flow.pair(&modes_block(sheet, half), &k);
             flow.block(&design_block(sheet, flow.w));
         }
-        // On a summary page the frequencies and the design basis share the width.
-        None if matches!(members, Members::Summary(_)) => flow.pair(&modes_block(sheet, half), &design_block(sheet, half)),
-        None => {
-            flow.block(&modes_block(sheet, half));
-            flow.block(&design_block(sheet, flow.w));
-        }
+        // The frequencies and the design basis share the width.
+        None => flow.pair(&modes_block(sheet, half), &design_block(sheet, half)),
     }
     let notes = |flow: &mut Flow| {
         if !sheet.project.notes.trim().is_empty() {
@@ -322,6 +322,9 @@ fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members, pass: 
     let summary_pages = flow.pages.len();
     if let (Members::Summary(k), Pass::Full) = (members, pass) {
         flow.new_page();
+        if shown < sheet.warnings.len() {
+            warnings_block(&mut flow, &sheet.warnings[shown..], "Warnings (continued)");
+        }
         notes(&mut flow);
         if k < all.len() {
             members_table(
@@ -339,6 +342,44 @@ fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members, pass: 
         pages: flow.pages,
         summary_pages,
     }
+}
+
+/// What a summary page leaves to the next pages, for the pointer under its member table.
+fn later(sheet: &Sheet, all_members: bool) -> String {
+    let mut parts = Vec::new();
+    if all_members {
+        parts.push(format!("All {} members", sheet.report.members.len()));
+    }
+    parts.push("the nodes (drawn position, displacement, reaction)".to_string());
+    if !sheet.project.notes.trim().is_empty() {
+        parts.push("the notes".to_string());
+    }
+    let text = match parts.len() {
+        1 => parts.remove(0),
+        _ => {
+            let last = parts.pop().unwrap_or_default();
+            format!("{} and {last}", parts.join(", "))
+        }
+    };
+    let mut chars = text.chars();
+    chars.next().map(|c| c.to_uppercase().chain(chars).collect()).unwrap_or_default()
+}
+
+/// A list of warnings under `title` (nothing when empty).
+fn warnings_block(flow: &mut Flow, warnings: &[String], title: &str) {
+    if warnings.is_empty() {
+        return;
+    }
+    flow.heading(title, 20.0);
+    for w in warnings {
+        flow.ensure(10.0);
+        let (x, y) = (flow.x, flow.y);
+        flow.page()
+            .text((x + 2.0, y + 7.0), Style::new(7.0, Weight::Bold, Ink::Black), Align::Left, "!");
+        flow.paragraph(w, 7.0, Weight::Regular, 10.0);
+        flow.y += 1.5;
+    }
+    flow.y += GAP - 1.5;
 }
 
 fn verdict(flow: &mut Flow, sheet: &Sheet) {
@@ -478,10 +519,14 @@ fn members_table(flow: &mut Flow, sheet: &Sheet, fmt: &Fmt, rows: &[usize], titl
                 Some(c) => Cell::two(fmt.in_unit(c.value, c.unit), c.what),
                 None => Cell::text("—"),
             };
-            let util = match (m.utilisation, m.governing_line()) {
-                (Some(u), Some(l)) => Cell::two(percent(u), format!("{} `{}`", l.check, l.case).replace(" ``", "")),
-                (None, Some(l)) => Cell::two("—", l.check),
-                _ => Cell::text("—"),
+            // The governing check with its own utilisation (a failing slack check has none,
+            // even when another check of the member has one).
+            let util = match m.governing_line() {
+                Some(l) => Cell::two(
+                    l.utilisation.map_or_else(|| "—".to_string(), percent),
+                    format!("{} `{}`", l.check, l.case).replace(" ``", ""),
+                ),
+                None => Cell::text("—"),
             };
             let status = Cell {
                 lines: vec![m.status.word().to_string()],
@@ -495,7 +540,10 @@ fn members_table(flow: &mut Flow, sheet: &Sheet, fmt: &Fmt, rows: &[usize], titl
                 force(&m.force_min),
                 force(&m.force_max),
                 capacity,
-                Cell::text(format!("{}", m.design_factor)),
+                match m.efficiency {
+                    Some(e) => Cell::two(format!("{}", m.design_factor), format!("e {e}")),
+                    None => Cell::text(format!("{}", m.design_factor)),
+                },
                 util,
                 status,
             ]

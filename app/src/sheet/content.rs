@@ -281,21 +281,52 @@ fn warnings(report: &CheckReport, drawn: usize) -> Vec<String> {
             ));
         }
     }
+    // Failures, one statement per check and load case: "Members `a`, `b` FAIL their tension
+    // check in load case `x` (utilisation up to 130.4 %): …".
+    struct Failing<'a> {
+        check: &'a str,
+        case: &'a str,
+        ids: Vec<String>,
+        worst: Option<f64>,
+        note: &'a str,
+    }
+    let mut fails: Vec<Failing> = Vec::new();
     for m in &report.members {
-        if m.status == Status::Fail
-            && let Some(line) = m.governing_line()
-        {
-            let case = if line.case.is_empty() {
-                String::new()
-            } else {
-                format!(" in load case `{}`", line.case)
-            };
-            let u = line
-                .utilisation
-                .map(|u| format!(", utilisation {:.0} %", u * 100.0))
-                .unwrap_or_default();
-            out.push(format!("Member `{}` FAILS its {} check{case}{u}: {}.", m.id, line.check, line.note));
+        if m.status != Status::Fail {
+            continue;
         }
+        let Some(line) = m.governing_line() else { continue };
+        match fails.iter_mut().find(|f| f.check == line.check && f.case == line.case) {
+            Some(f) => {
+                f.ids.push(m.id.clone());
+                f.worst = match (f.worst, line.utilisation) {
+                    (Some(a), Some(b)) => Some(a.max(b)),
+                    (a, b) => a.or(b),
+                };
+            }
+            None => fails.push(Failing {
+                check: line.check,
+                case: &line.case,
+                ids: vec![m.id.clone()],
+                worst: line.utilisation,
+                note: &line.note,
+            }),
+        }
+    }
+    for Failing { check, case, ids, worst: u, note } in fails {
+        let case = if case.is_empty() {
+            String::new()
+        } else {
+            format!(" in load case `{case}`")
+        };
+        let text = if ids.len() == 1 {
+            let u = u.map(|u| format!(", utilisation {:.1} %", u * 100.0)).unwrap_or_default();
+            format!("Member `{}` FAILS its {check} check{case}{u}: {note}.", ids[0])
+        } else {
+            let u = u.map(|u| format!(" (utilisation up to {:.1} %)", u * 100.0)).unwrap_or_default();
+            format!("Members {} FAIL their {check} check{case}{u}.", id_list(&ids, report.members.len()))
+        };
+        out.push(text);
     }
     for (ci, c) in report.cases.iter().enumerate() {
         let Some(eq) = &c.equilibrium else { continue };
@@ -348,7 +379,7 @@ fn warnings(report: &CheckReport, drawn: usize) -> Vec<String> {
 }
 
 /// Member ids for a statement: all of them, or "all N members", or the first ten and a count.
-fn id_list(ids: &[String], members: usize) -> String {
+pub(crate) fn id_list(ids: &[String], members: usize) -> String {
     let quoted: Vec<String> = ids.iter().map(|id| format!("`{id}`")).collect();
     match quoted.len() {
         n if n == members && n > 3 => format!("all {n} members"),

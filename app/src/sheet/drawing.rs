@@ -122,6 +122,31 @@ fn zigzag(a: (f32, f32), b: (f32, f32)) -> Vec<(f32, f32)> {
     pts
 }
 
+/// The side a support symbol is drawn on: a guide held along exactly one direction of the
+/// drawing plane sits on that direction's line (rollers running along the free direction),
+/// on the side of `away`; otherwise `away`, the side away from the members.
+fn guide_side(plane: Plane, fixed: [bool; 3], away: (f32, f32), anchor: bool) -> (f32, f32) {
+    if anchor {
+        return away;
+    }
+    let held: Vec<(f32, f32)> = (0..3)
+        .filter(|&a| fixed[a])
+        .map(|a| {
+            let mut e = Vec3::zeros();
+            e[a] = 1.0;
+            let q = plane.uv(&e);
+            // Page y runs down.
+            (q[0] as f32, -(q[1] as f32))
+        })
+        .filter(|q| q.0.abs() + q.1.abs() > 0.5)
+        .collect();
+    match held.as_slice() {
+        [f] if f.0 * away.0 + f.1 * away.1 < 0.0 => (-f.0, -f.1),
+        [f] => *f,
+        _ => away,
+    }
+}
+
 /// Support symbol at `p`: a triangle with its apex on the node, set on the side `u` away from
 /// the members; filled with a hatched ground line for an anchor, hollow on rollers for a
 /// guided support.
@@ -263,36 +288,8 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
             }
         }
     }
-    // Member ids at mid-length, on small rigs.
-    if model.members.len() <= 24 {
-        for (k, m) in model.members.iter().enumerate() {
-            let (a, b) = (shown[m.ends[0]], shown[m.ends[1]]);
-            let d = sub(b, a);
-            if (d.0 * d.0 + d.1 * d.1).sqrt() < fonts::width(&m.id, 5.5, Weight::Regular) + 16.0 {
-                continue; // too short on paper to carry its id
-            }
-            let e = unit(d);
-            let mut n = (-e.1, e.0);
-            // Right of steep members, above flat ones.
-            let steep = e.1.abs() > e.0.abs();
-            if (steep && n.0 < 0.0) || (!steep && n.1 > 0.0) {
-                n = (-n.0, -n.1);
-            }
-            // Alternate along the length so that labels of neighbouring members part.
-            let t = if k % 2 == 0 { 0.42 } else { 0.58 };
-            let mid = at((a.0 + (b.0 - a.0) * t, a.1 + (b.1 - a.1) * t), n, 5.0);
-            let align = if n.0 < -0.3 {
-                Align::Right
-            } else if n.0 > 0.3 {
-                Align::Left
-            } else {
-                Align::Centre
-            };
-            page.text((mid.0, mid.1 + 2.0), Style::new(5.5, Weight::Regular, Ink::Mid), align, &m.id);
-        }
-    }
-    // Labels already on the drawing: the load labels go first, then node ids where they do
-    // not overlap one.
+    // Labels already on the drawing: the load labels go first, then node ids and member ids
+    // where they overlap none.
     let mut labels = Placed::default();
     // Point loads of the case, arrows ending on the node.
     let case = &model.cases[sheet.case];
@@ -369,20 +366,17 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         let p = shown[i];
         let u = unit(away[i]);
         let supported = model.has_reaction(i);
+        let anchor = node.support.is_anchor() || (model.planar && node.support.fixed[0] && node.support.fixed[1]);
+        let side = guide_side(plane, node.support.fixed, u, anchor);
         if supported {
-            support(
-                page,
-                p,
-                u,
-                node.support.is_anchor() || (model.planar && node.support.fixed[0] && node.support.fixed[1]),
-            );
+            support(page, p, side, anchor);
         }
         if node.mass > 0.0 {
             page.circle(p, 2.4, None, Some(Ink::Black));
         } else {
             page.circle(p, 1.5, Some(Pen::solid(0.6, Ink::Black)), Some(Ink::White));
         }
-        let dir = if supported { (-u.1, u.0) } else { u };
+        let dir = if supported { (-side.1, side.0) } else { u };
         let dir = if dir.0.abs() < 0.2 && dir.1.abs() > 0.9 {
             (0.7, dir.1.signum() * 0.7)
         } else {
@@ -397,6 +391,38 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
                 page.text(at, Style::new(size, Weight::Bold, Ink::Black), align, l);
             } else {
                 left_out += 1;
+            }
+        }
+    }
+    // Member ids at mid-length, on small rigs, where they are clear of the other labels.
+    if model.members.len() <= 24 {
+        for (k, m) in model.members.iter().enumerate() {
+            let (a, b) = (shown[m.ends[0]], shown[m.ends[1]]);
+            let d = sub(b, a);
+            if (d.0 * d.0 + d.1 * d.1).sqrt() < fonts::width(&m.id, 5.5, Weight::Regular) + 16.0 {
+                continue; // too short on paper to carry its id
+            }
+            let e = unit(d);
+            let mut n = (-e.1, e.0);
+            // Right of steep members, above flat ones.
+            let steep = e.1.abs() > e.0.abs();
+            if (steep && n.0 < 0.0) || (!steep && n.1 > 0.0) {
+                n = (-n.0, -n.1);
+            }
+            // Alternate along the length so that labels of neighbouring members part.
+            let t = if k % 2 == 0 { 0.42 } else { 0.58 };
+            let mid = at((a.0 + (b.0 - a.0) * t, a.1 + (b.1 - a.1) * t), n, 5.0);
+            let align = if n.0 < -0.3 {
+                Align::Right
+            } else if n.0 > 0.3 {
+                Align::Left
+            } else {
+                Align::Centre
+            };
+            let at = (mid.0, mid.1 + 2.0);
+            // Last in line: a member id gives way to every other label.
+            if labels.place(text_box(at, 5.5, align, &m.id)) {
+                page.text(at, Style::new(5.5, Weight::Regular, Ink::Mid), align, &m.id);
             }
         }
     }
@@ -497,10 +523,13 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         1 => " One node id left out where crowded.".to_string(),
         n => format!(" {n} node ids left out where crowded."),
     };
-    let line1 = format!(
-        "Rig, {view_name}. Dashed grey: geometry as drawn. Solid: equilibrium of load case `{}`.{omitted}",
-        case.name
-    );
+    let line1 = match eq {
+        Some(_) => format!(
+            "Rig, {view_name}. Dashed grey: geometry as drawn. Solid: equilibrium of load case `{}`.{omitted}",
+            case.name
+        ),
+        None => format!("Rig, {view_name}. Dashed grey: geometry as drawn.{omitted}"),
+    };
     let line2 = match eq {
         Some(_) if mag > 1.0 => format!(
             "Displacements drawn ×{mag} (largest {} {} at `{at_node}`). Cable thin, strut thick, spring zigzag, slack cable dashed; filled dot: node with mass.",
@@ -566,6 +595,20 @@ fn fonts_free_number(v: f64) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn a_guide_sits_on_the_line_it_holds() {
+        // Held along x only, drawn in elevation: the rollers stand beside the node, on the
+        // members' far side; held along y: below or above; anchors and guides held only out of
+        // the plane keep the side away from the members.
+        let away = (-0.6, 0.8);
+        assert_eq!(guide_side(Plane::Elevation, [true, false, false], away, false), (-1.0, 0.0));
+        assert_eq!(guide_side(Plane::Elevation, [false, true, false], away, false), (0.0, 1.0));
+        assert_eq!(guide_side(Plane::Elevation, [false, false, true], away, false), away);
+        assert_eq!(guide_side(Plane::Elevation, [true, true, true], away, true), away);
+        // In plan, z runs down the page.
+        assert_eq!(guide_side(Plane::Plan, [false, false, true], (0.0, 1.0), false), (0.0, 1.0));
+    }
 
     #[test]
     fn scales_are_standard_and_fit() {
