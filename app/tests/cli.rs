@@ -67,11 +67,50 @@ fn bad_input_exits_2_with_the_problem_on_stderr() {
     assert!(err.contains("member `left`") && err.contains("positive"), "{err}");
     let (code, _, err) = rigwright(&["solve", "/nonexistent/rig.rig.ron"]);
     assert_eq!(code, 2);
-    assert!(err.contains("/nonexistent/rig.rig.ron"), "{err}");
+    assert_eq!(err.matches("/nonexistent/rig.rig.ron").count(), 1, "the file named once: {err}");
+    assert!(err.contains("check the file's name"), "{err}");
     let file = sample("sign-on-two-cables.rig.ron");
     let (code, _, err) = rigwright(&["solve", file.to_str().unwrap(), "--case", "hurricane"]);
     assert_eq!(code, 2);
     assert!(err.contains("`hurricane`") && err.contains("`dead`"), "{err}");
+    assert!(err.contains("sign-on-two-cables.rig.ron"), "names the file: {err}");
+    let (code, _, err) = rigwright(&["modes", file.to_str().unwrap(), "--count", "0"]);
+    assert_eq!(code, 2);
+    assert!(err.contains("at least one mode"), "{err}");
+}
+
+/// Parts from a catalogue file count the same in `check`, `sheet` and `export`.
+#[test]
+fn sheet_and_export_find_parts_in_catalogue_files_as_check_does() {
+    let supplier = sample("example-supplier.parts.ron");
+    let file = edited_sample("sign-on-two-cables.rig.ron", "supplier", |p| {
+        for m in &mut p.members {
+            m.design.get_or_insert_with(Default::default).part = Some("demo-dyneema-6".into());
+        }
+    });
+    let (f, cat) = (file.to_str().unwrap(), supplier.to_str().unwrap());
+    let (code, out, err) = rigwright(&["check", f, "--catalogue", cat]);
+    assert_eq!(code, 0, "{out}{err}");
+    let json = std::env::temp_dir().join(format!("rigwright-cli-{}-supplier.json", std::process::id()));
+    let j = json.to_str().unwrap();
+    let (code, _, err) = rigwright(&["export", f, "--json", j, "--catalogue", cat]);
+    assert_eq!(code, 0, "{err}");
+    let passes = |path: &std::path::Path| {
+        let doc: serde_json::Value = serde_json::from_str(&std::fs::read_to_string(path).unwrap()).unwrap();
+        doc["passes"].as_bool().unwrap()
+    };
+    assert!(passes(&json), "the supplier's parts are found");
+    // Without the catalogue file the part is unknown to the export too.
+    let (code, _, err) = rigwright(&["export", f, "--json", j]);
+    assert_eq!(code, 0, "{err}");
+    assert!(!passes(&json), "without the catalogue file the part is not found");
+    let pdf = std::env::temp_dir().join(format!("rigwright-cli-{}-supplier.pdf", std::process::id()));
+    let (code, _, err) = rigwright(&["sheet", f, "-o", pdf.to_str().unwrap(), "--catalogue", cat]);
+    assert_eq!(code, 0, "{err}");
+    assert!(err.contains("PASSES"), "{err}");
+    for p in [file, json, pdf] {
+        std::fs::remove_file(p).ok();
+    }
 }
 
 #[test]

@@ -20,7 +20,12 @@ pub const EXIT_BAD_INPUT: u8 = 2;
 pub const EXIT_NO_EQUILIBRIUM: u8 = 3;
 
 #[derive(Parser, Debug)]
-#[command(name = "rigwright", version, about = "Large-displacement statics of cable-and-spring rigs")]
+#[command(
+    name = "rigwright",
+    version,
+    about = "Large-displacement statics of cable-and-spring rigs",
+    after_help = "Exit codes: 0 done; 1 a member fails a check (check, autosize); 2 bad input (the message says what and where); 3 a load case has no equilibrium (solve, modes, pluck; sheet and export still write their files, which say so).\n\nRigging can hurt people: results are a design aid for qualified persons and do not replace local codes, manufacturers' ratings or review by a licensed engineer."
+)]
 #[command(args_conflicts_with_subcommands = true)]
 pub struct Cli {
     /// Project file (*.rig.ron) to open in the window; without it the last project reopens.
@@ -221,6 +226,9 @@ pub enum Command {
         /// List the tangent stiffness at this node (repeat for more nodes).
         #[arg(long)]
         stiffness: Vec<String>,
+        /// Extra catalogue file(s) (*.parts.ron) to find parts in, as for `check`.
+        #[arg(long)]
+        catalogue: Vec<PathBuf>,
         #[command(flatten)]
         info: sheet_cmd::InfoArgs,
     },
@@ -244,6 +252,9 @@ pub enum Command {
         /// Also give the tangent stiffness at this node in the JSON (repeat for more).
         #[arg(long)]
         stiffness: Vec<String>,
+        /// Extra catalogue file(s) (*.parts.ron) to find parts in, as for `check`.
+        #[arg(long)]
+        catalogue: Vec<PathBuf>,
     },
 }
 
@@ -308,7 +319,17 @@ impl Failure {
 }
 
 fn load(path: &Path) -> Result<(Project, Model), Failure> {
-    Project::load_model(path).map_err(|e| Failure::input(format!("{}: {e}", path.display())))
+    Project::load_model(path).map_err(|e| load_failure(path, &e))
+}
+
+/// A project file that could not be read or used, named once, with what to do about it.
+pub(crate) fn load_failure(path: &Path, e: &rigwright_core::model::ProjectError) -> Failure {
+    use rigwright_core::model::ProjectError;
+    match e {
+        // The message already names the file.
+        ProjectError::Io { .. } => Failure::input(format!("{e}; check the file's name and folder")),
+        _ => Failure::input(format!("{}: {e}", path.display())),
+    }
 }
 
 fn case_index(model: &Model, case: Option<&str>) -> Result<usize, Failure> {
@@ -323,7 +344,7 @@ fn case_index(model: &Model, case: Option<&str>) -> Result<usize, Failure> {
 /// Loads a project and resolves the load case (default: the first).
 fn load_case(path: &Path, case: Option<&str>) -> Result<(Model, usize), Failure> {
     let (_, model) = load(path)?;
-    let case = case_index(&model, case)?;
+    let case = case_index(&model, case).map_err(|f| Failure::input(format!("{}: {}", path.display(), f.message)))?;
     Ok((model, case))
 }
 
@@ -423,8 +444,19 @@ pub fn run(command: Command) -> Result<(), Failure> {
             case,
             paper,
             stiffness,
+            catalogue,
             info,
-        } => sheet_cmd::sheet(&file, &output, case, &paper, stiffness, info),
+        } => sheet_cmd::sheet(
+            &file,
+            &output,
+            &paper,
+            sheet_cmd::Choice {
+                case,
+                stiffness,
+                catalogue,
+            },
+            info,
+        ),
         Command::Export {
             file,
             case,
@@ -432,10 +464,14 @@ pub fn run(command: Command) -> Result<(), Failure> {
             csv_nodes,
             json,
             stiffness,
+            catalogue,
         } => sheet_cmd::export(
             &file,
-            case,
-            stiffness,
+            sheet_cmd::Choice {
+                case,
+                stiffness,
+                catalogue,
+            },
             sheet_cmd::Outputs {
                 members: csv_members,
                 nodes: csv_nodes,
@@ -443,6 +479,9 @@ pub fn run(command: Command) -> Result<(), Failure> {
             },
         ),
         Command::Modes { file, case, count, json } => {
+            if count == 0 {
+                return Err(Failure::input("--count 0: ask for at least one mode"));
+            }
             let (model, case) = load_case(&file, case.as_deref())?;
             print_output(&dynamics::modes_command(&model, case, count, json)?, json);
             Ok(())

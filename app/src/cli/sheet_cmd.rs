@@ -50,16 +50,25 @@ impl InfoArgs {
     }
 }
 
+/// What a sheet or an export is of: the load case, the nodes whose stiffness it lists, and
+/// catalogue files to find parts in.
+pub struct Choice {
+    pub case: Option<String>,
+    pub stiffness: Vec<String>,
+    pub catalogue: Vec<PathBuf>,
+}
+
 /// Reads the project and builds the sheet's content.
-fn build(file: &Path, case: Option<String>, stiffness: Vec<String>, info: SheetInfo) -> Result<Sheet, Failure> {
+fn build(file: &Path, choice: Choice, info: SheetInfo) -> Result<Sheet, Failure> {
+    let project = Project::load(file).map_err(|e| super::load_failure(file, &e))?;
     let bytes = std::fs::read(file).map_err(|e| Failure::input(format!("{}: {e}", file.display())))?;
-    let project = Project::load(file).map_err(|e| Failure::input(format!("{}: {e}", file.display())))?;
     let options = SheetOptions {
-        case,
-        stiffness,
+        case: choice.case,
+        stiffness: choice.stiffness,
         info,
         file_name: file.file_name().map(|n| n.to_string_lossy().into_owned()),
         unsaved: false,
+        extra_parts: super::sizing::catalogue_files(&choice.catalogue)?,
     };
     Sheet::build(&project, &bytes, &options).map_err(|e| Failure::input(format!("{}: {e}", file.display())))
 }
@@ -87,9 +96,9 @@ fn unsolved(sheet: &Sheet, what: &str) -> Result<(), Failure> {
 }
 
 /// `rigwright sheet`.
-pub fn sheet(file: &Path, output: &Path, case: Option<String>, paper: &str, stiffness: Vec<String>, info: InfoArgs) -> Result<(), Failure> {
+pub fn sheet(file: &Path, output: &Path, paper: &str, choice: Choice, info: InfoArgs) -> Result<(), Failure> {
     let paper = Paper::parse(paper).ok_or_else(|| Failure::input(format!("paper `{paper}`: use a4 or letter")))?;
-    let sheet = build(file, case, stiffness, info.into_info())?;
+    let sheet = build(file, choice, info.into_info())?;
     let laid = sheet.pages(paper);
     let pdf = sheet.pdf_of(&laid, paper).map_err(Failure::input)?;
     write(output, &pdf)?;
@@ -106,13 +115,13 @@ pub struct Outputs {
 }
 
 /// `rigwright export`.
-pub fn export(file: &Path, case: Option<String>, stiffness: Vec<String>, out: Outputs) -> Result<(), Failure> {
+pub fn export(file: &Path, choice: Choice, out: Outputs) -> Result<(), Failure> {
     if out.members.is_none() && out.nodes.is_none() && out.json.is_none() {
         return Err(Failure::input(
             "nothing to export: give --csv-members FILE, --csv-nodes FILE or --json FILE (or --json - to print)",
         ));
     }
-    let sheet = build(file, case, stiffness, SheetInfo::default())?;
+    let sheet = build(file, choice, SheetInfo::default())?;
     if let Some(path) = &out.members {
         write(path, export::members_csv(&sheet).as_bytes())?;
     }

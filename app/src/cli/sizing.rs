@@ -17,19 +17,24 @@ use super::{EXIT_BAD_INPUT, Failure};
 pub const EXIT_CHECK_FAILED: u8 = 1;
 
 fn read_project(path: &Path) -> Result<Project, Failure> {
-    let p = Project::load(path).map_err(|e| Failure::input(format!("{}: {e}", path.display())))?;
+    let p = Project::load(path).map_err(|e| super::load_failure(path, &e))?;
     p.validate().map_err(|e| Failure::input(format!("{}: {e}", path.display())))?;
     Ok(p)
 }
 
 /// The project's catalogue with extra catalogue files merged in.
 fn catalogue(project: &Project, files: &[PathBuf]) -> Result<Catalogue, Failure> {
+    Ok(project_catalogue(project, &catalogue_files(files)?))
+}
+
+/// The parts of catalogue files, in order.
+pub(crate) fn catalogue_files(files: &[PathBuf]) -> Result<Catalogue, Failure> {
     let mut extra = Catalogue::default();
     for f in files {
         let c = Catalogue::load(f).map_err(|e| Failure::input(format!("{}: {e}", f.display())))?;
         extra.extend(c.parts().iter().cloned());
     }
-    Ok(project_catalogue(project, &extra))
+    Ok(extra)
 }
 
 /// A force in newtons as printed in tables: kN above 10 kN.
@@ -80,8 +85,11 @@ fn check_json(report: &CheckReport) -> String {
 fn check_table(project: &Project, r: &CheckReport) -> String {
     let mut s = String::new();
     let _ = writeln!(s, "Checks of {}", if project.title.is_empty() { "the rig" } else { &project.title });
+    // The design factors of the kinds of member the rig has.
     for c in [MemberClass::Cable, MemberClass::Spring, MemberClass::Strut] {
-        let _ = writeln!(s, "  design factor {}: {}", r.design_factors.of(c), class_label(c));
+        if r.members.iter().any(|m| m.class == c) {
+            let _ = writeln!(s, "  design factor {}: {}", r.design_factors.of(c), class_label(c));
+        }
     }
     let _ = writeln!(s, "  near limit above utilisation {}", r.near_limit);
     for c in &r.cases {

@@ -63,6 +63,8 @@ pub fn sheet_inputs(app: &RigApp) -> SheetInputs {
             .and_then(|p| p.file_name())
             .map(|n| n.to_string_lossy().into_owned()),
         unsaved,
+        // The app imports catalogue files into the project's own parts.
+        extra_parts: Default::default(),
     };
     SheetInputs {
         project: app.doc.project.clone(),

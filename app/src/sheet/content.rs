@@ -28,6 +28,8 @@ pub struct SheetOptions {
     pub file_name: Option<String>,
     /// The document differs from the file on disk (the hash is of the text as it would be saved).
     pub unsaved: bool,
+    /// Parts from catalogue files, found after the built-in ropes and the project's own parts.
+    pub extra_parts: Catalogue,
 }
 
 /// How the drawn case was chosen.
@@ -150,7 +152,7 @@ impl Sheet {
                 .ok_or_else(|| format!("node `{id}` does not exist; check the id (--stiffness takes a node id)"))?;
             marked.push((id.clone(), i));
         }
-        let catalogue = project_catalogue(project, &Catalogue::default());
+        let catalogue = project_catalogue(project, &options.extra_parts);
         let report = check(project, &model, &catalogue, solve_cases_watched(&model, watch));
         if watch.stopped() {
             return Err(STOPPED.into());
@@ -313,7 +315,14 @@ fn warnings(report: &CheckReport, drawn: usize) -> Vec<String> {
             }),
         }
     }
-    for Failing { check, case, ids, worst: u, note } in fails {
+    for Failing {
+        check,
+        case,
+        ids,
+        worst: u,
+        note,
+    } in fails
+    {
         let case = if case.is_empty() {
             String::new()
         } else {
