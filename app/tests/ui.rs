@@ -324,7 +324,8 @@ fn the_checks_tab_shows_status_in_words_and_auto_size_fixes_a_failure() {
     h.run();
     let p = h.state().doc.project.clone();
     let report = rigwright_core::sizing::check_project(&p, &rigwright_core::sizing::project_catalogue(&p, &Default::default())).unwrap();
-    let u = format!("{:.3}", report.members[0].utilisation.unwrap());
+    let governing = report.members[0].governing_line().unwrap();
+    let u = format!("{:.1} %", governing.utilisation.unwrap() * 100.0);
     assert!(h.query_by_label(&u).is_some(), "utilisation {u} of the first member is listed");
     assert!(h.query_all_by_label("pass").count() >= 2);
     assert!(h.query_by_label("All checks pass").is_some());

@@ -39,6 +39,8 @@ pub struct SizingState {
     part_filter: String,
     /// Auto-size chooses only among part ids containing this text.
     pub autosize_only: String,
+    /// List the members in the project's order instead of failing first, then by utilisation.
+    pub project_order: bool,
 }
 
 impl SizingState {
@@ -202,13 +204,15 @@ pub fn checks_ui(app: &mut RigApp, ui: &mut egui::Ui) {
         };
         ui.label(verdict);
         ui.label(format!(
-            "— {} pass, {} near limit, {} fail, {} not checked; near limit above utilisation {}",
+            "— {} pass, {} near limit, {} fail, {} not checked; near limit above {:.1} %",
             report.count(Status::Pass),
             report.count(Status::Near),
             report.count(Status::Fail),
             report.count(Status::NotChecked),
-            report.near_limit
+            report.near_limit * 100.0
         ));
+        ui.checkbox(&mut app.sizing.project_order, "project order")
+            .on_hover_text("List the members as in the project instead of failing first, then by utilisation");
     });
     for c in &report.cases {
         if let Some(e) = &c.error {
@@ -233,17 +237,32 @@ pub fn checks_ui(app: &mut RigApp, ui: &mut egui::Ui) {
                 ui.label(RichText::new(h).strong());
             }
             ui.end_row();
-            for m in &report.members {
+            let mut order: Vec<&rigwright_core::sizing::MemberCheck> = report.members.iter().collect();
+            if !app.sizing.project_order {
+                // Failing first, then by utilisation, highest first.
+                order.sort_by(|a, b| {
+                    let u = |m: &rigwright_core::sizing::MemberCheck| m.utilisation.unwrap_or(f64::NEG_INFINITY);
+                    (b.status == Status::Fail)
+                        .cmp(&(a.status == Status::Fail))
+                        .then_with(|| u(b).total_cmp(&u(a)))
+                });
+            }
+            for m in order {
                 if ui.link(&m.id).on_hover_text("Select this member").clicked()
                     && let Some(i) = app.doc.project.members.iter().position(|d| d.id == m.id)
                 {
                     app.selection = Selection::Member(i);
                 }
                 ui.label(status_text(m.status));
-                ui.label(m.utilisation.map_or("—".to_string(), |u| format!("{u:.3}")));
+                // The governing check's own utilisation (a failing slack check has none).
+                ui.label(
+                    m.governing_line()
+                        .and_then(|l| l.utilisation)
+                        .map_or("—".to_string(), |u| format!("{:.1} %", u * 100.0)),
+                );
                 let gov = match m.governing_line() {
                     Some(l) if l.case.is_empty() => l.check.to_string(),
-                    Some(l) => format!("{} in `{}`", l.check, l.case),
+                    Some(l) => format!("{} in “{}”", l.check, l.case),
                     None => m.notes.first().cloned().unwrap_or_default(),
                 };
                 let r = ui.label(gov);
@@ -255,9 +274,10 @@ pub fn checks_ui(app: &mut RigApp, ui: &mut egui::Ui) {
                         if l.case.is_empty() {
                             String::new()
                         } else {
-                            format!(" in `{}`", l.case)
+                            format!(" in “{}”", l.case)
                         },
-                        l.utilisation.map_or(l.status.word().to_string(), |u| format!("utilisation {u:.3}")),
+                        l.utilisation
+                            .map_or(l.status.word().to_string(), |u| format!("utilisation {:.1} %", u * 100.0)),
                         l.note
                     ));
                 }
@@ -269,7 +289,7 @@ pub fn checks_ui(app: &mut RigApp, ui: &mut egui::Ui) {
                 }
                 let env = |v: &Option<(f64, String)>| {
                     v.as_ref().map_or("—".to_string(), |(x, c)| {
-                        format!("{} [{c}]", significant(units.to_display(Quantity::Force, *x), 4))
+                        format!("{} [“{c}”]", significant(units.to_display(Quantity::Force, *x), 4))
                     })
                 };
                 ui.label(env(&m.force_min));
