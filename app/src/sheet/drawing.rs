@@ -297,16 +297,36 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         let p = shown[*node];
         let fuv = uv(f);
         let len = (fuv[0] * fuv[0] + fuv[1] * fuv[1]).sqrt();
-        let label = if len < 1e-9 * f.norm().max(1.0) {
-            format!("{} out of plane", fmt.force_u(f.norm()))
+        // The part toward the viewer (the plane's normal: u × v).
+        let toward = match plane {
+            Plane::Elevation => f.z,
+            Plane::Plan => f.y,
+            Plane::Side => -f.x,
+        };
+        if len < 1e-9 * f.norm().max(1.0) {
+            // Across the drawing: a ring round the node, crossed when the load points away
+            // from the viewer (into the page), plain when toward the viewer.
+            let r = 5.5;
+            page.circle(p, r, Some(Pen::solid(1.0, Ink::Black)), None);
+            if toward < 0.0 {
+                let k = r * 0.7;
+                page.line((p.0 - k, p.1 - k), (p.0 + k, p.1 + k), Pen::solid(0.8, Ink::Black));
+                page.line((p.0 - k, p.1 + k), (p.0 + k, p.1 - k), Pen::solid(0.8, Ink::Black));
+            }
+            let way = if toward < 0.0 { "into the page" } else { "out of the page" };
+            let label = format!("{} {way}", fmt.force_u(f.norm()));
+            let at = (p.0 + r + 3.0, p.1 - r - 1.0);
+            page.text(at, Style::new(6.5, Weight::Bold, Ink::Black), Align::Left, &label);
+            labels.place(text_box(at, 6.5, Align::Left, &label));
+            labels.block((p.0 - r, p.1 - r, p.0 + r, p.1 + r));
+            continue;
+        }
+        let label = if toward.abs() > 1e-6 * f.norm() {
+            format!("{} ({} in the page's plane)", fmt.force_u(f.norm()), fmt.force_u(len))
         } else {
             fmt.force_u(f.norm())
         };
-        let d = if len > 0.0 {
-            (fuv[0] as f32 / len as f32, -fuv[1] as f32 / len as f32)
-        } else {
-            (0.0, 1.0)
-        };
+        let d = (fuv[0] as f32 / len as f32, -fuv[1] as f32 / len as f32);
         let tail = at(p, d, -ARROW);
         page.line(tail, at(p, d, -3.0), Pen::solid(1.0, Ink::Black));
         arrow_head(page, at(p, d, -2.5), d, 5.0, Ink::Black);
@@ -331,9 +351,16 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
     }
     let label_small = model.nodes.len() > 30;
     let mut left_out = 0;
-    // Node ids keep off the nodes themselves.
-    for p in shown.iter() {
-        labels.place((p.0 - 2.5, p.1 - 2.5, p.0 + 2.5, p.1 + 2.5));
+    // Node ids keep off the nodes themselves and their support symbols.
+    for (i, p) in shown.iter().enumerate() {
+        labels.block((p.0 - 2.5, p.1 - 2.5, p.0 + 2.5, p.1 + 2.5));
+        if model.has_reaction(i) {
+            let node = &model.nodes[i];
+            let anchor = node.support.is_anchor() || (model.planar && node.support.fixed[0] && node.support.fixed[1]);
+            let side = guide_side(plane, node.support.fixed, unit(away[i]), anchor);
+            let c = at(*p, side, 7.0);
+            labels.block((c.0 - 8.0, c.1 - 8.0, c.0 + 8.0, c.1 + 8.0));
+        }
     }
     // Nodes that fall on one point of the drawing share one label: "a / b", or "a +3" for more.
     let mut label: Vec<Option<String>> = model.nodes.iter().map(|n| Some(n.id.clone())).collect();
@@ -376,21 +403,33 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         } else {
             page.circle(p, 1.5, Some(Pen::solid(0.6, Ink::Black)), Some(Ink::White));
         }
-        let dir = if supported { (-side.1, side.0) } else { u };
-        let dir = if dir.0.abs() < 0.2 && dir.1.abs() > 0.9 {
-            (0.7, dir.1.signum() * 0.7)
+        // Where the id may go, best first: beside a support symbol, or away from the members
+        // of a free node; then the other sides. The first place clear of every label, node and
+        // support symbol wins.
+        let candidates = if supported {
+            [(-side.1, side.0), (side.1, -side.0), (-side.0, -side.1), side]
         } else {
-            dir
+            [u, (-u.1, u.0), (u.1, -u.0), (-u.0, -u.1)]
         };
-        let q = at(p, dir, 5.0);
-        let align = if dir.0 < 0.0 { Align::Right } else { Align::Left };
         let size = if label_small { 5.0 } else { 6.5 };
         if let Some(l) = &label[i] {
-            let at = (q.0, q.1 + 2.3 + dir.1 * 2.0);
-            if labels.place(text_box(at, size, align, l)) {
-                page.text(at, Style::new(size, Weight::Bold, Ink::Black), align, l);
-            } else {
-                left_out += 1;
+            // Farther out only on small rigs, where ids are few and worth the room.
+            let reaches: &[f32] = if label_small { &[5.0] } else { &[5.0, 12.0] };
+            let tries = reaches.iter().flat_map(|&reach| candidates.map(|dir| (dir, reach)));
+            let spot = tries.into_iter().find_map(|(dir, reach)| {
+                let dir = if dir.0.abs() < 0.2 && dir.1.abs() > 0.9 {
+                    (0.7, dir.1.signum() * 0.7)
+                } else {
+                    dir
+                };
+                let q = at(p, dir, reach);
+                let align = if dir.0 < 0.0 { Align::Right } else { Align::Left };
+                let at = (q.0, q.1 + 2.3 + dir.1 * 2.0);
+                labels.place(text_box(at, size, align, l)).then_some((at, align))
+            });
+            match spot {
+                Some((at, align)) => page.text(at, Style::new(size, Weight::Bold, Ink::Black), align, l),
+                None => left_out += 1,
             }
         }
     }
@@ -580,6 +619,11 @@ impl Placed {
             self.0.push(b);
         }
         free
+    }
+
+    /// Keeps `b` as something labels must keep off (a node, a support), overlapping or not.
+    fn block(&mut self, b: (f32, f32, f32, f32)) {
+        self.0.push(b);
     }
 }
 
