@@ -161,6 +161,7 @@ fn check_table(project: &Project, r: &CheckReport) -> String {
         r.count(Status::Fail),
         r.count(Status::NotChecked),
         match (r.passes(), r.count(Status::NotChecked)) {
+            _ if r.members.is_empty() => "The rig has no members: nothing to check; add cables, springs or struts.".to_string(),
             (false, _) => "NOT ALL CHECKS PASS.".to_string(),
             (true, 0) => "All checks pass.".to_string(),
             (true, n) => format!("No check fails, but {n} member(s) have nothing to check against: give them a part, design or section."),

@@ -303,11 +303,11 @@ fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members, pass: 
     let half = (flow.w - 12.0) / 2.0;
     match stiffness_block(sheet, &fmt, half) {
         Some(k) => {
-            flow.pair(&modes_block(sheet, half), &k);
-            flow.block(&design_block(sheet, flow.w));
+            flow.pair(&modes_block(sheet, &fmt, half), &k);
+            flow.block(&design_block(sheet, &fmt, flow.w));
         }
         // The frequencies and the design basis share the width.
-        None => flow.pair(&modes_block(sheet, half), &design_block(sheet, half)),
+        None => flow.pair(&modes_block(sheet, &fmt, half), &design_block(sheet, &fmt, half)),
     }
     let notes = |flow: &mut Flow| {
         if !sheet.project.notes.trim().is_empty() {
@@ -469,11 +469,8 @@ fn rest_text(sheet: &Sheet, i: usize, fmt: &Fmt) -> Cell {
         | rigwright_core::model::MemberDocKind::Spring { rest, .. }
         | rigwright_core::model::MemberDocKind::Strut { rest, .. } => rest,
     });
-    let word = if matches!(m.kind, MemberKind::Spring { .. }) {
-        "free length"
-    } else {
-        "L0"
-    };
+    // The member's own unstressed length (for a spring in a link, the whole link).
+    let word = "L0";
     match rest {
         Some(Rest::Tension(t)) => {
             let what = if matches!(m.kind, MemberKind::Spring { .. }) {
@@ -509,7 +506,7 @@ fn members_table(flow: &mut Flow, sheet: &Sheet, fmt: &Fmt, rows: &[usize], titl
                     Cell::two(
                         "(no part given)",
                         match k {
-                            MemberKind::Cable { ea, .. } | MemberKind::Strut { ea, .. } => format!("EA {:.4e} N", ea),
+                            MemberKind::Cable { ea, .. } | MemberKind::Strut { ea, .. } => format!("EA {}", fmt.force_u(*ea)),
                             MemberKind::Spring { k, .. } => format!("rate {} {}", fmt.stiffness(*k), fmt.stiffness_unit()),
                         },
                     )
@@ -691,7 +688,7 @@ impl Flow {
     }
 }
 
-fn modes_block(sheet: &Sheet, width: f32) -> Block {
+fn modes_block(sheet: &Sheet, fmt: &Fmt, width: f32) -> Block {
     let title = format!("Natural frequencies, `{}`", sheet.case_name());
     match &sheet.modes {
         Ok(m) if !m.modes.is_empty() => {
@@ -706,7 +703,7 @@ fn modes_block(sheet: &Sheet, width: f32) -> Block {
                         Cell::text(format!("{:.3}", mode.frequency_hz)),
                         Cell::text(format!("{:.4}", mode.period_s)),
                     ];
-                    row.extend(axes.iter().map(|&a| Cell::text(format!("{:.2}", mode.effective_mass[a]))));
+                    row.extend(axes.iter().map(|&a| Cell::text(fmt.mass(mode.effective_mass[a]))));
                     row
                 })
                 .collect();
@@ -716,7 +713,10 @@ fn modes_block(sheet: &Sheet, width: f32) -> Block {
                 Column::new("period\n[s]", Align::Right),
             ];
             for &a in axes {
-                columns.push(Column::new(&format!("eff. mass {}\n[kg]", ["x", "y", "z"][a]), Align::Right));
+                columns.push(Column::new(
+                    &format!("eff. mass {}\n[{}]", ["x", "y", "z"][a], fmt.mass_unit()),
+                    Align::Right,
+                ));
             }
             Block {
                 title,
@@ -800,7 +800,7 @@ fn stiffness_block(sheet: &Sheet, fmt: &Fmt, width: f32) -> Option<Block> {
 
 /// The design factors and limits with their sources: a table at full width, a list of
 /// statements in a narrow column (so that no source is cut short).
-fn design_block(sheet: &Sheet, width: f32) -> Block {
+fn design_block(sheet: &Sheet, fmt: &Fmt, width: f32) -> Block {
     use rigwright_core::element::MemberClass;
     let df = &sheet.report.design_factors;
     let sizing = &sheet.project.sizing;
@@ -834,7 +834,7 @@ fn design_block(sheet: &Sheet, width: f32) -> Block {
     if present(MemberClass::Cable) {
         items.push((
             "slack threshold".into(),
-            format!("{} N", sizing.slack_threshold),
+            fmt.force_u(sizing.slack_threshold),
             "a cable not marked `may slacken` fails at or below this tension".into(),
         ));
     }

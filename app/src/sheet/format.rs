@@ -103,6 +103,16 @@ impl Fmt {
         }
     }
 
+    /// The mass unit's symbol.
+    pub fn mass_unit(&self) -> &'static str {
+        self.units.symbol(Quantity::Mass)
+    }
+
+    /// A mass (kg) in the display unit, two decimals, without the unit.
+    pub fn mass(&self, si: f64) -> String {
+        format!("{:.2}", self.units.to_display(Quantity::Mass, si))
+    }
+
     /// A mass (kg) with its unit.
     pub fn mass_u(&self, si: f64) -> String {
         self.units.show(Quantity::Mass, si)
