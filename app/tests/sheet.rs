@@ -462,6 +462,11 @@ fn page_one_summarises_and_the_complete_tables_follow() {
     for node in &project.nodes {
         assert!(rest.contains(&node.id), "node `{}` missing from the complete table", node.id);
     }
+    // The load cases list their point loads (the pole's wind load, as in the file).
+    let pole = Project::load(&sample("guyed-pole.rig.ron")).unwrap();
+    let pole_sheet = Sheet::build(&pole, b"", &options).unwrap();
+    let first = texts(&pole_sheet.pages(Paper::A4)[0]);
+    assert!(first.iter().any(|t| t == "top: (1200, 0, 0) N"), "{first:?}");
     // Small rigs: every member in the table on page 1 (ids in tables are bold; the drawing
     // labels members in regular type).
     for name in [
@@ -500,4 +505,46 @@ fn a_stopped_sheet_build_says_so() {
     let built = Sheet::build_watched(&project, b"", &SheetOptions::default(), &watch);
     assert_eq!(built.err().as_deref(), Some(rigwright::sheet::STOPPED));
     assert!(Sheet::build_watched(&project, b"", &SheetOptions::default(), &rigwright_core::Watch::new()).is_ok());
+}
+
+/// A displacement of more than a quarter of the rig's size is pointed out (the tool's own
+/// threshold, not a code limit); the figures in the warning are the solver's, found here
+/// directly.
+#[test]
+fn a_large_displacement_is_pointed_out_with_the_solvers_figures() {
+    let mut project = Project::load(&sample("sign-on-two-cables.rig.ron")).unwrap();
+    let plain = Sheet::build(&project, b"", &SheetOptions::default()).unwrap();
+    assert!(
+        !plain.warnings.iter().any(|w| w.contains("Large displacement")),
+        "{:?}",
+        plain.warnings
+    );
+    // 2 kN upward on a 45 kg sign flips it over its anchors.
+    project.cases.push(rigwright_core::model::CaseDoc {
+        name: "uplift".into(),
+        gravity: 1.0,
+        loads: vec![rigwright_core::model::LoadDoc {
+            node: "sign".into(),
+            force: (0.0, 2000.0, 0.0),
+        }],
+    });
+    let sheet = Sheet::build(&project, b"", &SheetOptions::default()).unwrap();
+    let model = project.validate().unwrap();
+    let eq = Statics::new(&model).solve(model.cases.len() - 1, None).unwrap();
+    let moved = eq.nodes[model.node_index("sign").unwrap()].displacement.norm();
+    let (mut lo, mut hi) = ([f64::INFINITY; 3], [f64::NEG_INFINITY; 3]);
+    for n in &model.nodes {
+        for a in 0..3 {
+            lo[a] = lo[a].min(n.position[a]);
+            hi[a] = hi[a].max(n.position[a]);
+        }
+    }
+    let size = (0..3).map(|a| (hi[a] - lo[a]).powi(2)).sum::<f64>().sqrt();
+    let warning = sheet
+        .warnings
+        .iter()
+        .find(|w| w.contains("Large displacement in load case `uplift`"))
+        .unwrap_or_else(|| panic!("{:?}", sheet.warnings));
+    assert!(warning.contains("node `sign`"), "{warning}");
+    assert!(warning.contains(&format!("{:.0} %", 100.0 * moved / size)), "{warning}");
 }

@@ -238,7 +238,7 @@ fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members, pass: 
         w: pw - 2.0 * MARGIN,
     };
     verdict(&mut flow, sheet);
-    cases_table(&mut flow, sheet);
+    cases_table(&mut flow, sheet, &fmt);
     flow.ensure(drawing_h);
     let area = Area {
         x: flow.x,
@@ -408,7 +408,7 @@ fn verdict(flow: &mut Flow, sheet: &Sheet) {
     flow.y += h + GAP;
 }
 
-fn cases_table(flow: &mut Flow, sheet: &Sheet) {
+fn cases_table(flow: &mut Flow, sheet: &Sheet, fmt: &Fmt) {
     let model = &sheet.model;
     let rows = sheet
         .report
@@ -417,7 +417,24 @@ fn cases_table(flow: &mut Flow, sheet: &Sheet) {
         .enumerate()
         .map(|(i, c)| {
             let case = &model.cases[i];
-            let loads = case.loads.len();
+            // Each point load as its node and force vector (the first three; then a count).
+            let mut loads: Vec<String> = case
+                .loads
+                .iter()
+                .take(3)
+                .map(|(node, f)| {
+                    let c: Vec<String> = (0..3).filter(|&a| a < 2 || !model.planar).map(|a| fmt.force(f[a])).collect();
+                    format!("{}: ({}) {}", model.nodes[*node].id, c.join(", "), fmt.force_unit())
+                })
+                .collect();
+            if case.loads.len() > 3 {
+                loads.push(format!("and {} more", case.loads.len() - 3));
+            }
+            let loads = if loads.is_empty() {
+                Cell::text("none")
+            } else {
+                Cell { lines: loads, bold: false }
+            };
             let state = match (&c.equilibrium, &c.error) {
                 (Some(eq), _) => Cell::text(format!(
                     "stable equilibrium ({} Newton iterations, {} load step(s))",
@@ -440,7 +457,7 @@ fn cases_table(flow: &mut Flow, sheet: &Sheet) {
             vec![
                 Cell::bold(c.name.clone()),
                 Cell::text(format!("{} × g", case.gravity)),
-                Cell::text(format!("{loads}")),
+                loads,
                 state,
                 Cell::text(drawn),
             ]
@@ -450,7 +467,14 @@ fn cases_table(flow: &mut Flow, sheet: &Sheet) {
         vec![
             Column::new("load case", Align::Left),
             Column::new("gravity", Align::Right),
-            Column::new("point loads", Align::Right),
+            Column::new(
+                if model.planar {
+                    "point loads\nnode: (x, y)"
+                } else {
+                    "point loads\nnode: (x, y, z)"
+                },
+                Align::Left,
+            ),
             Column::new("state", Align::Left),
             Column::new("", Align::Left),
         ],

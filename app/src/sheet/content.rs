@@ -7,7 +7,7 @@
 use rigwright_core::dynamics::{Modes, modes_watched};
 use rigwright_core::model::{SheetInfo, UnitSystem};
 use rigwright_core::sizing::{Catalogue, CheckReport, Status, check, project_catalogue, solve_cases_watched};
-use rigwright_core::{Equilibrium, Model, NodeStiffness, Project, Statics, Watch};
+use rigwright_core::{Equilibrium, Model, NodeStiffness, Project, Statics, Vec3, Watch};
 use sha2::{Digest, Sha256};
 
 use crate::gui::units::Units;
@@ -114,6 +114,10 @@ fn merge(base: &SheetInfo, over: &SheetInfo) -> SheetInfo {
     info
 }
 
+/// A node moving more than this fraction of the rig's size (the diagonal of its drawn
+/// geometry) is pointed out among the warnings.
+const LARGE_MOVE: f64 = 0.25;
+
 /// What [`Sheet::build_watched`] says when it was stopped.
 pub const STOPPED: &str = "stopped before the sheet was made";
 
@@ -191,7 +195,7 @@ impl Sheet {
             UnitSystem::SI => Units::Si,
             UnitSystem::US => Units::Us,
         };
-        let warnings = warnings(&report, case);
+        let warnings = warnings(&model, &report, case, units);
         Ok(Sheet {
             project: project.clone(),
             info: merge(&project.sheet, &options.info),
@@ -273,7 +277,7 @@ fn governing_case(model: &Model, report: &CheckReport) -> (usize, CaseChoice) {
 
 /// Plain statements of what needs attention: cases without equilibrium, failing members,
 /// slack cables, members near their limit, unchecked members and the checks' own notes.
-fn warnings(report: &CheckReport, drawn: usize) -> Vec<String> {
+fn warnings(model: &Model, report: &CheckReport, drawn: usize, units: Units) -> Vec<String> {
     let mut out = Vec::new();
     for c in &report.cases {
         if let Some(e) = &c.error {
@@ -346,6 +350,34 @@ fn warnings(report: &CheckReport, drawn: usize) -> Vec<String> {
                 "SLACK in load case `{}`: cable(s) {} carry no tension{drawn}.",
                 c.name,
                 slack.join(", ")
+            ));
+        }
+    }
+    // Displacements large against the rig's size: a result, but one to look at.
+    let (mut lo, mut hi) = (Vec3::repeat(f64::INFINITY), Vec3::repeat(f64::NEG_INFINITY));
+    for n in &model.nodes {
+        lo = lo.inf(&n.position);
+        hi = hi.sup(&n.position);
+    }
+    let size = if model.nodes.is_empty() { 0.0 } else { (hi - lo).norm() };
+    for c in &report.cases {
+        let Some(eq) = &c.equilibrium else { continue };
+        let Some((i, d)) = eq
+            .nodes
+            .iter()
+            .map(|n| n.displacement.norm())
+            .enumerate()
+            .max_by(|a, b| a.1.total_cmp(&b.1))
+        else {
+            continue;
+        };
+        if size > 0.0 && d > LARGE_MOVE * size {
+            out.push(format!(
+                "Large displacement in load case `{}`: node `{}` moves {}, {:.0} % of the rig's size; check clearances and that this shape is intended.",
+                c.name,
+                model.nodes[i].id,
+                units.show(crate::gui::units::Quantity::Length, d),
+                100.0 * d / size
             ));
         }
     }
