@@ -525,7 +525,8 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
     }
     // Scale bar and the scale, bottom left; the legend bottom right.
     let base_y = area.y + area.h - caption_h - 4.0;
-    let bar = bar_length(400.0 / s);
+    // Not longer than the rig's larger span, nor than 400 pt of paper.
+    let bar = bar_length((400.0 / s).min(5.0 * span[0].max(span[1])));
     let bw = (bar * s) as f32;
     let bx = area.x + 10.0;
     for k in 0..4 {
