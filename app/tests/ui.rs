@@ -397,6 +397,39 @@ fn a_sweep_run_from_the_sweep_tab_plots_its_outputs() {
     assert!(h.query_by_label("lowest-frequency (Hz)").is_some());
 }
 
+/// The Sweep's Choose menu lists what this rig has and sets the range about its value.
+#[test]
+fn the_sweep_parameter_can_be_chosen_from_the_rigs_own_items() {
+    let mut h = harness();
+    show_tab(&mut h, ReadoutTab::Sweep);
+    h.run();
+    let choices = rigwright::gui::sizing::sweep_choices(&h.state().doc.project);
+    let members = &choices.iter().find(|(g, _)| *g == "Member properties").unwrap().1;
+    let first = h.state().doc.project.members[0].id.clone();
+    let wanted = format!("member:{first}:ea");
+    assert!(members.contains(&wanted), "{members:?}");
+    // No rate for a cable, no z on a planar rig.
+    assert!(!members.iter().any(|m| m.ends_with(":rate")), "{members:?}");
+    let nodes = &choices.iter().find(|(g, _)| *g == "Node mass and position").unwrap().1;
+    assert!(!nodes.iter().any(|n| n.ends_with(":z")), "{nodes:?}");
+    h.get_by_label("Choose…").click();
+    h.run();
+    h.get_by_label("Member properties").click();
+    h.run();
+    h.get_by_label(&wanted).click();
+    h.run();
+    let ea = match h.state().doc.project.members[0].kind {
+        rigwright_core::model::MemberDocKind::Cable { ea, .. } => ea,
+        _ => panic!("the first member of the sample is a cable"),
+    };
+    let (param, from, to) = h.state().sizing.sweep_setup();
+    assert_eq!(param, wanted);
+    assert!(
+        (from - 0.5 * ea).abs() < 1e-6 * ea && (to - 1.5 * ea).abs() < 1e-6 * ea,
+        "{from}..{to}"
+    );
+}
+
 #[test]
 fn importing_a_parts_file_adds_its_parts_and_a_bad_one_changes_nothing() {
     let mut h = harness();

@@ -59,6 +59,11 @@ impl SizingState {
         self.sweep.job.is_some()
     }
 
+    /// What the Sweep varies and over which range (SI), as set up in its panel.
+    pub fn sweep_setup(&self) -> (&str, f64, f64) {
+        (&self.sweep.param, self.sweep.from, self.sweep.to)
+    }
+
     /// The last Sweep's result, if one finished.
     pub fn sweep_result(&self) -> Option<&Result<SweepResult, String>> {
         self.sweep.result.as_ref()
@@ -877,27 +882,38 @@ pub fn windows(app: &mut RigApp, ctx: &egui::Context) {
 /// The Sweep readout.
 pub fn sweep_ui(app: &mut RigApp, ui: &mut egui::Ui) {
     if app.sizing.sweep.param.is_empty() {
-        app.sizing.sweep.param = suggest_param(app);
-        if let Ok(p) = app.sizing.sweep.param.parse::<Param>()
-            && let Some(mut v) = p.current(&app.doc.project)
-        {
-            // A member stress-free as drawn has no pretension to start from: use its force.
-            if let (Param::Pretension(id), Some(a), true) = (&p, app.answer(), v == 0.0)
-                && let Some(i) = a.model.member_index(id)
-            {
-                v = a.eq.members[i].force;
-            }
-            let span = if v == 0.0 { 1.0 } else { v.abs() };
-            (app.sizing.sweep.from, app.sizing.sweep.to) = (v - 0.5 * span, v + 0.5 * span);
-        }
+        let param = suggest_param(app);
+        choose_param(app, param);
     }
     let mut run = false;
+    let mut chosen = None;
     ui.horizontal_top(|ui| {
         ui.vertical(|ui| {
             ui.set_width(300.0);
             let s = &mut app.sizing.sweep;
             let name = ui.label("Vary (member:ID:pretension|rate|ea, node:ID:x|y|z|mass, load:CASE:NODE:x|y|z)").id;
-            ui.add(egui::TextEdit::singleline(&mut s.param).desired_width(280.0)).labelled_by(name);
+            ui.horizontal(|ui| {
+                ui.add(egui::TextEdit::singleline(&mut s.param).desired_width(200.0)).labelled_by(name);
+                ui.menu_button("Choose…", |ui| {
+                    for (group, items) in sweep_choices(&app.doc.project) {
+                        if items.is_empty() {
+                            continue;
+                        }
+                        ui.menu_button(group, |ui| {
+                            egui::ScrollArea::vertical().max_height(320.0).show(ui, |ui| {
+                                for item in items {
+                                    if ui.button(&item).clicked() {
+                                        chosen = Some(item);
+                                    }
+                                }
+                            });
+                        });
+                    }
+                })
+                .response
+                .on_hover_text("Pick what to vary from this rig's members, nodes and point loads");
+            });
+            let s = &mut app.sizing.sweep;
             let unit = s.param.parse::<Param>().map(|p| p.unit()).unwrap_or("SI");
             ui.horizontal(|ui| {
                 ui.add(DragValue::new(&mut s.from).speed(0.01).prefix("from "));
@@ -914,6 +930,9 @@ pub fn sweep_ui(app: &mut RigApp, ui: &mut egui::Ui) {
         ui.separator();
         ui.vertical(|ui| sweep_result(app, ui));
     });
+    if let Some(param) = chosen {
+        choose_param(app, param);
+    }
     if run {
         start_sweep(app);
     }
@@ -1037,6 +1056,64 @@ fn sweep_result(app: &mut RigApp, ui: &mut egui::Ui) {
 
 /// A parameter to start from: the selected member's pretension or rate, the selected node's
 /// mass, or the first member's.
+/// Sets what the Sweep varies, with a range of ±50 % about its present value (±0.5 about 0).
+fn choose_param(app: &mut RigApp, param: String) {
+    app.sizing.sweep.param = param;
+    if let Ok(p) = app.sizing.sweep.param.parse::<Param>()
+        && let Some(mut v) = p.current(&app.doc.project)
+    {
+        // A member stress-free as drawn has no pretension to start from: use its force.
+        if let (Param::Pretension(id), Some(a), true) = (&p, app.answer(), v == 0.0)
+            && let Some(i) = a.model.member_index(id)
+        {
+            v = a.eq.members[i].force;
+        }
+        let span = if v == 0.0 { 1.0 } else { v.abs() };
+        (app.sizing.sweep.from, app.sizing.sweep.to) = (v - 0.5 * span, v + 0.5 * span);
+    }
+}
+
+/// Most entries listed per group in the Sweep's Choose menu.
+const CHOICES_PER_GROUP: usize = 100;
+
+/// What the Sweep can vary on this rig, by group (members, nodes, loads), each a parameter
+/// as typed; only those the rig has.
+pub fn sweep_choices(p: &Project) -> Vec<(&'static str, Vec<String>)> {
+    let valid = |text: String| text.parse::<Param>().ok().and_then(|q| q.current(p)).map(|_| text);
+    let members = p
+        .members
+        .iter()
+        .flat_map(|m| ["pretension", "rate", "ea"].map(|what| format!("member:{}:{what}", m.id)))
+        .filter_map(valid)
+        .take(CHOICES_PER_GROUP)
+        .collect();
+    let nodes = p
+        .nodes
+        .iter()
+        .flat_map(|n| ["mass", "x", "y", "z"].map(|what| format!("node:{}:{what}", n.id)))
+        .filter(|t| !(p.planar && t.ends_with(":z")))
+        .filter_map(valid)
+        .take(CHOICES_PER_GROUP)
+        .collect();
+    let loads = p
+        .cases
+        .iter()
+        .flat_map(|c| {
+            c.loads
+                .iter()
+                .flat_map(move |l| ["x", "y", "z"].map(|a| format!("load:{}:{}:{a}", c.name, l.node)))
+        })
+        .filter(|t| !(p.planar && t.ends_with(":z")))
+        .filter_map(valid)
+        .take(CHOICES_PER_GROUP)
+        .collect();
+    vec![
+        ("Member properties", members),
+        ("Node mass and position", nodes),
+        ("Point loads", loads),
+    ]
+}
+
 fn suggest_param(app: &RigApp) -> String {
     let p = &app.doc.project;
     match app.selection {
