@@ -103,6 +103,7 @@ pub fn menu_bar(app: &mut RigApp, ui: &mut egui::Ui) {
             }
             ui.checkbox(&mut app.settings.drawn_geometry, "Drawn geometry (faint)");
             ui.checkbox(&mut app.settings.force_labels, "Force labels");
+            ui.checkbox(&mut app.settings.node_ids, "Node ids");
             ui.checkbox(&mut app.settings.reactions, "Reaction arrows");
             ui.checkbox(&mut app.settings.snap, "Snap to grid");
         });
@@ -180,6 +181,8 @@ pub fn toolbar(app: &mut RigApp, ui: &mut egui::Ui) {
             .on_hover_text("Snap new and dragged nodes to the grid");
         ui.toggle_value(&mut app.settings.force_labels, "Labels")
             .on_hover_text("Write forces and masses on the Rig view");
+        ui.toggle_value(&mut app.settings.node_ids, "Ids")
+            .on_hover_text("Write node ids beside the nodes (the names the Sweep and the command line use)");
         if ui.button("Fit").on_hover_text("Fit the rig into the Rig view [F]").clicked() {
             app.queue(Command::FitView);
         }

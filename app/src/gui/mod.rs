@@ -59,6 +59,8 @@ pub struct Settings {
     pub reactions: bool,
     /// Faint drawn geometry under the solved shape.
     pub drawn_geometry: bool,
+    /// Node ids written beside the nodes.
+    pub node_ids: bool,
 }
 
 impl Default for Settings {
@@ -72,6 +74,7 @@ impl Default for Settings {
             force_labels: true,
             reactions: true,
             drawn_geometry: true,
+            node_ids: false,
         }
     }
 }

@@ -482,6 +482,9 @@ fn draw_answer(app: &RigApp, a: &Answer<'_>, painter: &egui::Painter, units: Uni
         } else if !model.has_reaction(i) {
             painter.circle(s, 3.0, pal::PAPER, Stroke::new(1.4, pal::INK));
         }
+        if app.settings.node_ids {
+            texts.push((s + vec2(0.0, -16.0), n.id.clone(), pal::MUTED));
+        }
     }
 
     // Reactions.
