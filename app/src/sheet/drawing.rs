@@ -525,8 +525,11 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
     }
     // Scale bar and the scale, bottom left; the legend bottom right.
     let base_y = area.y + area.h - caption_h - 4.0;
-    // Not longer than the rig's larger span, nor than 400 pt of paper.
-    let bar = bar_length((400.0 / s).min(5.0 * span[0].max(span[1])));
+    // A round length in the sheet's unit, not longer than the rig's larger span, nor than
+    // 400 pt of paper.
+    let per = fmt.metres_per_length_unit();
+    let bar_units = bar_length((400.0 / s).min(5.0 * span[0].max(span[1])) / per);
+    let bar = bar_units * per;
     let bw = (bar * s) as f32;
     let bx = area.x + 10.0;
     for k in 0..4 {
@@ -539,7 +542,7 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         (bx + bw, base_y - 6.0),
         Style::new(6.0, Weight::Regular, Ink::Dark),
         Align::Centre,
-        &fmt.length_u(bar),
+        &format!("{} {}", fonts_free_number(bar_units), fmt.length_unit()),
     );
     let ratio_text = if ratio >= 1.0 {
         format!("1:{}", fonts_free_number(ratio))

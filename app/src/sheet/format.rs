@@ -60,6 +60,11 @@ impl Fmt {
         format!("{:.3}", self.units.to_display(Quantity::Length, si))
     }
 
+    /// Metres per display unit of length (1 for m, 0.3048 for ft).
+    pub fn metres_per_length_unit(&self) -> f64 {
+        1.0 / self.units.to_display(Quantity::Length, 1.0)
+    }
+
     pub fn length_u(&self, si: f64) -> String {
         format!("{} {}", self.length(si), self.length_unit())
     }
