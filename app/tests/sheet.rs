@@ -504,6 +504,13 @@ fn a_stopped_sheet_build_says_so() {
     watch.stop();
     let built = Sheet::build_watched(&project, b"", &SheetOptions::default(), &watch);
     assert_eq!(built.err().as_deref(), Some(rigwright::sheet::STOPPED));
+    // The load cases themselves are not solved once stopped (the build's first step).
+    let model = project.validate().unwrap();
+    let cases = rigwright_core::sizing::solve_cases_watched(&model, &watch);
+    assert!(
+        cases.iter().all(|c| c.equilibrium.is_none() && c.error.is_some()),
+        "solved after a stop"
+    );
     assert!(Sheet::build_watched(&project, b"", &SheetOptions::default(), &rigwright_core::Watch::new()).is_ok());
 }
 

@@ -428,6 +428,17 @@ fn the_sweep_parameter_can_be_chosen_from_the_rigs_own_items() {
         (from - 0.5 * ea).abs() < 1e-6 * ea && (to - 1.5 * ea).abs() < 1e-6 * ea,
         "{from}..{to}"
     );
+    // A mass of zero (an anchor's) sweeps from zero up to the rig's largest mass, never below.
+    let anchor = h.state().doc.project.nodes.iter().find(|n| n.mass == 0.0).unwrap().id.clone();
+    let largest = h.state().doc.project.nodes.iter().map(|n| n.mass).fold(0.0, f64::max);
+    h.get_by_label("Choose…").click();
+    h.run();
+    h.get_by_label("Node mass and position").click();
+    h.run();
+    h.get_by_label(&format!("node:{anchor}:mass")).click();
+    h.run();
+    let (_, from, to) = h.state().sizing.sweep_setup();
+    assert_eq!((from, to), (0.0, largest));
 }
 
 #[test]

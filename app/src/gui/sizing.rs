@@ -901,10 +901,14 @@ pub fn sweep_ui(app: &mut RigApp, ui: &mut egui::Ui) {
                         }
                         ui.menu_button(group, |ui| {
                             egui::ScrollArea::vertical().max_height(320.0).show(ui, |ui| {
+                                let full = items.len() >= CHOICES_PER_GROUP;
                                 for item in items {
                                     if ui.button(&item).clicked() {
                                         chosen = Some(item);
                                     }
+                                }
+                                if full {
+                                    ui.label(format!("(the first {CHOICES_PER_GROUP}; type any other)"));
                                 }
                             });
                         });
@@ -1054,23 +1058,45 @@ fn sweep_result(app: &mut RigApp, ui: &mut egui::Ui) {
         });
 }
 
-/// A parameter to start from: the selected member's pretension or rate, the selected node's
-/// mass, or the first member's.
-/// Sets what the Sweep varies, with a range of ±50 % about its present value (±0.5 about 0).
+/// Sets what the Sweep varies, with a range of ±50 % about its present value. From zero, the
+/// range comes from the rig: up to its largest node mass, ± its largest point load, ± a tenth
+/// of its size; masses, rates and EA never go below zero.
 fn choose_param(app: &mut RigApp, param: String) {
     app.sizing.sweep.param = param;
-    if let Ok(p) = app.sizing.sweep.param.parse::<Param>()
-        && let Some(mut v) = p.current(&app.doc.project)
+    let project = &app.doc.project;
+    let Ok(p) = app.sizing.sweep.param.parse::<Param>() else { return };
+    let Some(mut v) = p.current(project) else { return };
+    // A member stress-free as drawn has no pretension to start from: use its force.
+    if let (Param::Pretension(id), Some(a), true) = (&p, app.answer(), v == 0.0)
+        && let Some(i) = a.model.member_index(id)
     {
-        // A member stress-free as drawn has no pretension to start from: use its force.
-        if let (Param::Pretension(id), Some(a), true) = (&p, app.answer(), v == 0.0)
-            && let Some(i) = a.model.member_index(id)
-        {
-            v = a.eq.members[i].force;
-        }
-        let span = if v == 0.0 { 1.0 } else { v.abs() };
-        (app.sizing.sweep.from, app.sizing.sweep.to) = (v - 0.5 * span, v + 0.5 * span);
+        v = a.eq.members[i].force;
     }
+    let largest_mass = project.nodes.iter().map(|n| n.mass).fold(0.0, f64::max);
+    let largest_load = project
+        .cases
+        .iter()
+        .flat_map(|c| &c.loads)
+        .map(|l| (l.force.0.powi(2) + l.force.1.powi(2) + l.force.2.powi(2)).sqrt())
+        .fold(0.0, f64::max);
+    let size = {
+        let coords = |k: usize| project.nodes.iter().map(move |n| [n.at.0, n.at.1, n.at.2][k]);
+        (0..3)
+            .map(|k| coords(k).fold(f64::NEG_INFINITY, f64::max) - coords(k).fold(f64::INFINITY, f64::min))
+            .filter(|d| d.is_finite())
+            .fold(0.0, f64::max)
+    };
+    let positive = |x: f64| if x > 0.0 { x } else { 1.0 };
+    let nonnegative = matches!(p, Param::Mass(_) | Param::Rate(_) | Param::Ea(_));
+    let (from, to) = match (&p, v == 0.0) {
+        (Param::Mass(_), true) => (0.0, positive(largest_mass)),
+        (Param::Load { .. }, true) => (-positive(largest_load), positive(largest_load)),
+        (Param::Coordinate(..), true) => (-0.1 * positive(size), 0.1 * positive(size)),
+        (_, true) => (-0.5, 0.5),
+        (_, false) => (v - 0.5 * v.abs(), v + 0.5 * v.abs()),
+    };
+    let from = if nonnegative { from.max(0.0) } else { from };
+    (app.sizing.sweep.from, app.sizing.sweep.to) = (from, to);
 }
 
 /// Most entries listed per group in the Sweep's Choose menu.
@@ -1107,13 +1133,21 @@ pub fn sweep_choices(p: &Project) -> Vec<(&'static str, Vec<String>)> {
         .filter_map(valid)
         .take(CHOICES_PER_GROUP)
         .collect();
-    vec![
+    let mut groups: Vec<(&'static str, Vec<String>)> = vec![
         ("Member properties", members),
         ("Node mass and position", nodes),
         ("Point loads", loads),
-    ]
+    ];
+    for (_, items) in &mut groups {
+        // Two loads on one node in one case are one entry.
+        let mut seen = std::collections::HashSet::new();
+        items.retain(|t| seen.insert(t.clone()));
+    }
+    groups
 }
 
+/// A parameter to start from: the selected member's pretension or rate, the selected node's
+/// mass, or the first member's.
 fn suggest_param(app: &RigApp) -> String {
     let p = &app.doc.project;
     match app.selection {

@@ -128,6 +128,11 @@ pub fn pages(sheet: &Sheet, paper: Paper) -> Vec<Page> {
         if !fits(0) {
             continue;
         }
+        // Every member, when that fits (the trailer under a complete table is shorter, so
+        // fitting is not quite monotone at the top).
+        if n <= most_rows && fits(n) {
+            return finish(lay_out(sheet, paper, drawing, Members::Summary(n), Pass::Full).pages, sheet, paper);
+        }
         // The most rows that keep the summary on page 1 (fitting is monotone in rows).
         let (mut lo, mut hi) = (0, n.min(most_rows));
         while lo < hi {
@@ -281,16 +286,22 @@ fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members, pass: 
                 .collect();
             rows.truncate(k);
             let n = all.len();
-            members_table(
-                &mut flow,
-                sheet,
-                &fmt,
-                &rows,
-                &format!("Members of most concern, {k} of {n}: failing first, then by utilisation (force tension positive)"),
-            );
+            if k > 0 {
+                members_table(
+                    &mut flow,
+                    sheet,
+                    &fmt,
+                    &rows,
+                    &format!("Members of most concern, {k} of {n}: failing first, then by utilisation (force tension positive)"),
+                );
+            }
             if !left_off.is_empty() {
                 flow.paragraph(
-                    &format!("Also FAILING, not listed above: {}.", super::content::id_list(&left_off, n)),
+                    &format!(
+                        "{}: {}.",
+                        if k > 0 { "Also FAILING, not listed above" } else { "FAILING" },
+                        super::content::id_list(&left_off, n)
+                    ),
                     7.5,
                     Weight::Bold,
                     0.0,

@@ -302,7 +302,10 @@ fn warnings(model: &Model, report: &CheckReport, drawn: usize, units: Units) -> 
             continue;
         }
         let Some(line) = m.governing_line() else { continue };
-        match fails.iter_mut().find(|f| f.check == line.check && f.case == line.case) {
+        match fails
+            .iter_mut()
+            .find(|f| f.check == line.check && f.case == line.case && f.note == line.note)
+        {
             Some(f) => {
                 f.ids.push(m.id.clone());
                 f.worst = match (f.worst, line.utilisation) {
@@ -337,7 +340,10 @@ fn warnings(model: &Model, report: &CheckReport, drawn: usize, units: Units) -> 
             format!("Member `{}` FAILS its {check} check{case}{u}: {note}.", ids[0])
         } else {
             let u = u.map(|u| format!(" (utilisation up to {:.1} %)", u * 100.0)).unwrap_or_default();
-            format!("Members {} FAIL their {check} check{case}{u}.", id_list(&ids, report.members.len()))
+            format!(
+                "{} FAIL their {check} check{case}{u}: {note}.",
+                members_phrase(&ids, report.members.len())
+            )
         };
         out.push(text);
     }
@@ -413,10 +419,22 @@ fn warnings(model: &Model, report: &CheckReport, drawn: usize, units: Units) -> 
         }
     }
     for (note, ids) in notes {
-        let word = if ids.len() == 1 { "Member" } else { "Members" };
-        out.push(format!("{word} {}: {note}.", id_list(&ids, report.members.len())));
+        out.push(format!("{}: {note}.", members_phrase(&ids, report.members.len())));
     }
     out
+}
+
+/// The subject of a statement about members: "Member `a`", "Members `a`, `b`", "All N
+/// members".
+fn members_phrase(ids: &[String], members: usize) -> String {
+    let list = id_list(ids, members);
+    if list.starts_with("all ") {
+        format!("A{}", &list[1..])
+    } else if ids.len() == 1 {
+        format!("Member {list}")
+    } else {
+        format!("Members {list}")
+    }
 }
 
 /// Member ids for a statement: all of them, or "all N members", or the first ten and a count.
@@ -438,6 +456,9 @@ mod tests {
         let ids: Vec<String> = (1..=14).map(|i| format!("c{i}")).collect();
         assert_eq!(id_list(&ids[..2], 20), "`c1`, `c2`");
         assert_eq!(id_list(&ids, 14), "all 14 members");
+        assert_eq!(members_phrase(&ids, 14), "All 14 members");
+        assert_eq!(members_phrase(&ids[..1], 14), "Member `c1`");
+        assert_eq!(members_phrase(&ids[..2], 14), "Members `c1`, `c2`");
         assert_eq!(
             id_list(&ids, 20),
             "`c1`, `c2`, `c3`, `c4`, `c5`, `c6`, `c7`, `c8`, `c9`, `c10` and 4 more"

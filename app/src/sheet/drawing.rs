@@ -303,7 +303,11 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
             Plane::Plan => f.y,
             Plane::Side => -f.x,
         };
-        if len < 1e-9 * f.norm().max(1.0) {
+        if f.norm() == 0.0 {
+            continue;
+        }
+        // Mostly across the drawing (the part in its plane under 5 %): a ring.
+        if len < 0.05 * f.norm() {
             // Across the drawing: a ring round the node, crossed when the load points away
             // from the viewer (into the page), plain when toward the viewer.
             let r = 5.5;
@@ -317,7 +321,7 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
             let label = format!("{} {way}", fmt.force_u(f.norm()));
             let at = (p.0 + r + 3.0, p.1 - r - 1.0);
             page.text(at, Style::new(6.5, Weight::Bold, Ink::Black), Align::Left, &label);
-            labels.place(text_box(at, 6.5, Align::Left, &label));
+            labels.block(text_box(at, 6.5, Align::Left, &label));
             labels.block((p.0 - r, p.1 - r, p.0 + r, p.1 + r));
             continue;
         }
@@ -339,7 +343,7 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         };
         let ty = if d.1 > 0.3 { tail.1 - 3.0 } else { tail.1 + 10.0 };
         page.text((tail.0, ty), Style::new(6.5, Weight::Bold, Ink::Black), align, &label);
-        labels.place(text_box((tail.0, ty), 6.5, align, &label));
+        labels.block(text_box((tail.0, ty), 6.5, align, &label));
     }
     // Nodes, supports and node ids.
     let mut away = vec![(0.0f32, 0.0f32); model.nodes.len()];
