@@ -419,3 +419,27 @@ fn an_assigned_extension_spring_carries_its_initial_tension_at_its_free_length()
     assert_eq!(r.members[0].status, Status::NotChecked);
     assert!(r.members[0].notes.iter().any(|n| n.contains("hook")));
 }
+
+/// With two point loads on one node in one case, a Sweep's value is the node's total load in
+/// that direction, as read and as set (equilibrium of the node: the loads add; the other load
+/// keeps its own value).
+#[test]
+fn a_swept_load_component_is_the_nodes_total() {
+    let mut p = Project::new("two loads");
+    p.nodes = vec![anchor("floor", (0.0, 0.0, 0.0)), guided_y("plate", (0.0, 0.2, 0.0), 1.0)];
+    p.members = vec![member("spring", "floor", "plate", spring(4000.0, Rest::AsDrawn))];
+    let load = |y: f64| rigwright_core::model::LoadDoc {
+        node: "plate".into(),
+        force: (0.0, y, 0.0),
+    };
+    p.cases = vec![rigwright_core::model::CaseDoc {
+        name: "service".into(),
+        gravity: 1.0,
+        loads: vec![load(-30.0), load(-20.0)],
+    }];
+    let param: Param = "load:service:plate:y".parse().unwrap();
+    assert_eq!(param.current(&p), Some(-50.0));
+    param.apply(&mut p, -80.0).unwrap();
+    assert_eq!(param.current(&p), Some(-80.0));
+    assert_eq!(p.cases[0].loads[1].force.1, -20.0, "the other load keeps its value");
+}

@@ -197,7 +197,18 @@ impl Param {
                     .iter_mut()
                     .find(|c| &c.name == case)
                     .ok_or_else(|| format!("load case `{case}` does not exist"))?;
-                // One load per node carries the swept component; others on the node keep theirs.
+                // One load per node carries the swept component; others on the node keep theirs,
+                // and the first is set so that the node's total is the swept value (as `current`
+                // reads it).
+                let k = axis.index();
+                let others: f64 = c
+                    .loads
+                    .iter()
+                    .filter(|l| &l.node == node)
+                    .skip(1)
+                    .map(|l| [l.force.0, l.force.1, l.force.2][k])
+                    .sum();
+                let value = value - others;
                 let load = match c.loads.iter().position(|l| &l.node == node) {
                     Some(i) => &mut c.loads[i],
                     None => {
