@@ -70,20 +70,41 @@ impl FromStr for Param {
 
 impl Param {
     fn parse(s: &str) -> Result<Self, String> {
-        let parts: Vec<&str> = s.split(':').collect();
-        Ok(match parts.as_slice() {
-            ["member", id, "pretension"] => Param::Pretension(id.to_string()),
-            ["member", id, "rate"] => Param::Rate(id.to_string()),
-            ["member", id, "ea"] => Param::Ea(id.to_string()),
-            ["node", id, "mass"] => Param::Mass(id.to_string()),
-            ["node", id, a] => Param::Coordinate(id.to_string(), axis(a)?),
-            ["load", case, node, a] => Param::Load {
-                case: case.to_string(),
-                node: node.to_string(),
-                axis: axis(a)?,
-            },
-            _ => return Err("unknown form".into()),
-        })
+        // The last field names the quantity; ids may themselves hold ':' (the load form splits
+        // the case from the node at the first ':', so a case name may not).
+        let (head, last) = s.rsplit_once(':').ok_or("unknown form")?;
+        let nonempty = |id: &str| {
+            if id.is_empty() {
+                Err("an empty id".to_string())
+            } else {
+                Ok(id.to_string())
+            }
+        };
+        if let Some(id) = head.strip_prefix("member:") {
+            let id = nonempty(id)?;
+            return Ok(match last {
+                "pretension" => Param::Pretension(id),
+                "rate" => Param::Rate(id),
+                "ea" => Param::Ea(id),
+                _ => return Err(format!("`{last}` is not a member property")),
+            });
+        }
+        if let Some(id) = head.strip_prefix("node:") {
+            let id = nonempty(id)?;
+            return Ok(match last {
+                "mass" => Param::Mass(id),
+                a => Param::Coordinate(id, axis(a)?),
+            });
+        }
+        if let Some(rest) = head.strip_prefix("load:") {
+            let (case, node) = rest.split_once(':').ok_or("load:CASE:NODE:axis needs a case and a node")?;
+            return Ok(Param::Load {
+                case: nonempty(case)?,
+                node: nonempty(node)?,
+                axis: axis(last)?,
+            });
+        }
+        Err("unknown form".into())
     }
 }
 
@@ -464,4 +485,28 @@ pub fn sweep_watched(
         watch.advance();
     }
     Ok(result)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn parameters_read_back_as_written_with_colons_in_ids() {
+        for text in [
+            "member:guy-a:pretension",
+            "member:a:b:ea",
+            "node:n1:mass",
+            "node:hook:2:y",
+            "load:service:top:x",
+            "load:service:bay:3:z",
+        ] {
+            let p: Param = text.parse().unwrap_or_else(|e| panic!("{text}: {e}"));
+            assert_eq!(p.to_string(), text);
+        }
+        assert_eq!("member:a:b:ea".parse::<Param>(), Ok(Param::Ea("a:b".into())));
+        for bad in ["member::ea", "member:a:width", "node:a:w", "load:case:x", "pull:a:x", "mass"] {
+            assert!(bad.parse::<Param>().is_err(), "{bad}");
+        }
+    }
 }
