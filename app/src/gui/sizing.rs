@@ -242,17 +242,12 @@ pub fn checks_ui(app: &mut RigApp, ui: &mut egui::Ui) {
                 ui.label(RichText::new(h).strong());
             }
             ui.end_row();
-            let mut order: Vec<&rigwright_core::sizing::MemberCheck> = report.members.iter().collect();
-            if !app.sizing.project_order {
-                // Failing first, then by utilisation, highest first.
-                order.sort_by(|a, b| {
-                    let u = |m: &rigwright_core::sizing::MemberCheck| m.utilisation.unwrap_or(f64::NEG_INFINITY);
-                    (b.status == Status::Fail)
-                        .cmp(&(a.status == Status::Fail))
-                        .then_with(|| u(b).total_cmp(&u(a)))
-                });
-            }
-            for m in order {
+            let order: Vec<usize> = if app.sizing.project_order {
+                (0..report.members.len()).collect()
+            } else {
+                report.members_by_concern()
+            };
+            for m in order.into_iter().map(|i| &report.members[i]) {
                 if ui.link(&m.id).on_hover_text("Select this member").clicked()
                     && let Some(i) = app.doc.project.members.iter().position(|d| d.id == m.id)
                 {
@@ -1060,7 +1055,7 @@ fn sweep_result(app: &mut RigApp, ui: &mut egui::Ui) {
 
 /// Sets what the Sweep varies, with a range of ±50 % about its present value. From zero, the
 /// range comes from the rig: up to its largest node mass, ± its largest point load, ± a tenth
-/// of its size; masses, rates and EA never go below zero.
+/// of its size (the diagonal of its drawn geometry); masses, rates and EA never go below zero.
 fn choose_param(app: &mut RigApp, param: String) {
     app.sizing.sweep.param = param;
     let project = &app.doc.project;
@@ -1079,13 +1074,7 @@ fn choose_param(app: &mut RigApp, param: String) {
         .flat_map(|c| &c.loads)
         .map(|l| (l.force.0.powi(2) + l.force.1.powi(2) + l.force.2.powi(2)).sqrt())
         .fold(0.0, f64::max);
-    let size = {
-        let coords = |k: usize| project.nodes.iter().map(move |n| [n.at.0, n.at.1, n.at.2][k]);
-        (0..3)
-            .map(|k| coords(k).fold(f64::NEG_INFINITY, f64::max) - coords(k).fold(f64::INFINITY, f64::min))
-            .filter(|d| d.is_finite())
-            .fold(0.0, f64::max)
-    };
+    let size = app.doc.model.extent();
     let positive = |x: f64| if x > 0.0 { x } else { 1.0 };
     let nonnegative = matches!(p, Param::Mass(_) | Param::Rate(_) | Param::Ea(_));
     let (from, to) = match (&p, v == 0.0) {

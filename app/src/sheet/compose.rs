@@ -191,19 +191,6 @@ struct Laid {
     room: f32,
 }
 
-/// Members in order of concern: failing first, then by utilisation, highest first (whatever
-/// their status), those without one last; the project's order among equals.
-fn by_concern(sheet: &Sheet) -> Vec<usize> {
-    let members = &sheet.report.members;
-    let mut order: Vec<usize> = (0..members.len()).collect();
-    order.sort_by(|&a, &b| {
-        let fails = |i: usize| members[i].status == Status::Fail;
-        let u = |i: usize| members[i].utilisation.unwrap_or(f64::NEG_INFINITY);
-        fails(b).cmp(&fails(a)).then_with(|| u(b).total_cmp(&u(a)))
-    });
-    order
-}
-
 /// Warnings printed on a summary page; the rest are listed on the next pages.
 const SUMMARY_WARNINGS: usize = 6;
 
@@ -278,7 +265,7 @@ fn lay_out(sheet: &Sheet, paper: Paper, drawing_h: f32, members: Members, pass: 
             flow.y += GAP;
         }
         Members::Summary(k) => {
-            let mut rows = by_concern(sheet);
+            let mut rows = sheet.report.members_by_concern();
             let left_off: Vec<String> = rows[k.min(rows.len())..]
                 .iter()
                 .filter(|&&i| sheet.report.members[i].status == Status::Fail)

@@ -7,7 +7,7 @@
 use rigwright_core::dynamics::{Modes, modes_watched};
 use rigwright_core::model::{SheetInfo, UnitSystem};
 use rigwright_core::sizing::{Catalogue, CheckReport, Status, check, project_catalogue, solve_cases_watched};
-use rigwright_core::{Equilibrium, Model, NodeStiffness, Project, Statics, Vec3, Watch};
+use rigwright_core::{Equilibrium, Model, NodeStiffness, Project, Statics, Watch};
 use sha2::{Digest, Sha256};
 
 use crate::gui::units::Units;
@@ -360,12 +360,7 @@ fn warnings(model: &Model, report: &CheckReport, drawn: usize, units: Units) -> 
         }
     }
     // Displacements large against the rig's size: a result, but one to look at.
-    let (mut lo, mut hi) = (Vec3::repeat(f64::INFINITY), Vec3::repeat(f64::NEG_INFINITY));
-    for n in &model.nodes {
-        lo = lo.inf(&n.position);
-        hi = hi.sup(&n.position);
-    }
-    let size = if model.nodes.is_empty() { 0.0 } else { (hi - lo).norm() };
+    let size = model.extent();
     for c in &report.cases {
         let Some(eq) = &c.equilibrium else { continue };
         let Some((i, d)) = eq
@@ -377,7 +372,7 @@ fn warnings(model: &Model, report: &CheckReport, drawn: usize, units: Units) -> 
         else {
             continue;
         };
-        if size > 0.0 && d > LARGE_MOVE * size {
+        if d > LARGE_MOVE * size {
             out.push(format!(
                 "Large displacement in load case `{}`: node `{}` moves {}, {:.0} % of the rig's size; check clearances and that this shape is intended.",
                 c.name,

@@ -128,6 +128,19 @@ impl CheckReport {
         self.cases.iter().all(|c| c.error.is_none()) && self.members.iter().all(|m| m.status != Status::Fail)
     }
 
+    /// Member indices in order of concern: failing first, then by utilisation, highest first
+    /// (whatever the status), those without one last; the project's order among equals.
+    pub fn members_by_concern(&self) -> Vec<usize> {
+        let members = &self.members;
+        let mut order: Vec<usize> = (0..members.len()).collect();
+        order.sort_by(|&a, &b| {
+            let fails = |i: usize| members[i].status == Status::Fail;
+            let u = |i: usize| members[i].utilisation.unwrap_or(f64::NEG_INFINITY);
+            fails(b).cmp(&fails(a)).then_with(|| u(b).total_cmp(&u(a)))
+        });
+        order
+    }
+
     /// Number of members with each status.
     pub fn count(&self, status: Status) -> usize {
         self.members.iter().filter(|m| m.status == status).count()
