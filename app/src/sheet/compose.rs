@@ -139,9 +139,7 @@ pub fn pages(sheet: &Sheet, paper: Paper) -> Vec<Page> {
             let mid = (lo + hi).div_ceil(2);
             if fits(mid) { lo = mid } else { hi = mid - 1 }
         }
-        if lo == n {
-            return finish(lay_out(sheet, paper, drawing, Members::Summary(n), Pass::Full).pages, sheet, paper);
-        }
+        // (Every member fitting returned above, so fewer than all fit here.)
         choices.push((drawing, lo));
     }
     // Every failing member on page 1 when it can be; those that do not fit are named below

@@ -355,14 +355,21 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
     }
     let label_small = model.nodes.len() > 30;
     let mut left_out = 0;
+    // Each node's support symbol: whether it is drawn as an anchor, and the side it sits on.
+    let symbols: Vec<(bool, (f32, f32))> = model
+        .nodes
+        .iter()
+        .enumerate()
+        .map(|(i, node)| {
+            let anchor = node.support.is_anchor() || (model.planar && node.support.fixed[0] && node.support.fixed[1]);
+            (anchor, guide_side(plane, node.support.fixed, unit(away[i]), anchor))
+        })
+        .collect();
     // Node ids keep off the nodes themselves and their support symbols.
     for (i, p) in shown.iter().enumerate() {
         labels.block((p.0 - 2.5, p.1 - 2.5, p.0 + 2.5, p.1 + 2.5));
         if model.has_reaction(i) {
-            let node = &model.nodes[i];
-            let anchor = node.support.is_anchor() || (model.planar && node.support.fixed[0] && node.support.fixed[1]);
-            let side = guide_side(plane, node.support.fixed, unit(away[i]), anchor);
-            let c = at(*p, side, 7.0);
+            let c = at(*p, symbols[i].1, 7.0);
             labels.block((c.0 - 8.0, c.1 - 8.0, c.0 + 8.0, c.1 + 8.0));
         }
     }
@@ -397,8 +404,7 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         let p = shown[i];
         let u = unit(away[i]);
         let supported = model.has_reaction(i);
-        let anchor = node.support.is_anchor() || (model.planar && node.support.fixed[0] && node.support.fixed[1]);
-        let side = guide_side(plane, node.support.fixed, u, anchor);
+        let (anchor, side) = symbols[i];
         if supported {
             support(page, p, side, anchor);
         }
