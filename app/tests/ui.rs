@@ -504,20 +504,27 @@ fn large_net(name: &str) -> (Harness<'static, RigApp>, std::path::PathBuf) {
 #[test]
 fn modes_and_checks_of_a_large_rig_run_beside_the_window() {
     let (mut h, path) = large_net("large");
+    // Jobs wait at the gate until it opens, so the frames below certainly see them running.
+    let gate = Arc::new(AtomicBool::new(true));
+    hold_jobs_spawned_here(Some(gate.clone()));
     show_tab(&mut h, ReadoutTab::Modes);
     h.step();
     // The first frames show the work in progress; the window keeps drawing meanwhile.
     assert!(h.state().modes_job.is_some(), "the modes of 1,200 free DOFs run on another thread");
+    gate.store(false, Ordering::Relaxed);
     step_until(&mut h, |app| app.modes.is_some());
     assert!(h.state().modes.as_ref().unwrap().result.is_ok());
+    gate.store(true, Ordering::Relaxed);
     show_tab(&mut h, ReadoutTab::Checks);
     h.step();
     assert!(h.state().sizing.checking(), "a 480-node rig is checked on another thread");
+    gate.store(false, Ordering::Relaxed);
     step_until(&mut h, |app| app.sizing.report().is_some());
     assert_eq!(
         h.state().sizing.report().unwrap().members.len(),
         h.state().doc.project.members.len()
     );
+    hold_jobs_spawned_here(None);
     std::fs::remove_file(path).ok();
 }
 

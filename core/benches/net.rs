@@ -21,7 +21,7 @@ fn benches(c: &mut Criterion) {
         let model = net(n);
         let statics = Statics::new(&model);
         let sys = statics.system();
-        let pos: Vec<_> = model.nodes.iter().map(|nd| nd.position).collect();
+        let pos = vec![rigwright_core::Vec3::zeros(); model.nodes.len()];
         let load = model.case_forces(0);
         let dofs = sys.size();
         g.bench_with_input(BenchmarkId::new("assembly", dofs), &n, |b, _| {

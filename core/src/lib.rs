@@ -25,5 +25,7 @@ pub mod watch;
 
 pub use element::{MemberKind, MemberState};
 pub use model::{Axis, FILE_EXTENSION, FORMAT_VERSION, Member, Model, Node, Problem, Project, ProjectError, Rest, Support, Vec3};
-pub use solve::{Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, SolveError, SolveSettings, Stability, Statics};
+pub use solve::{
+    CriticalKind, Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, Route, SolveError, SolveSettings, Stability, Statics,
+};
 pub use watch::Watch;

@@ -2,6 +2,7 @@
 
 use rigwright_core::{Equilibrium, Model, Project, Statics};
 
+pub mod independent;
 pub mod robustness;
 
 /// Validates a project, panicking with the problems listed.

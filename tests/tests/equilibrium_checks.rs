@@ -32,7 +32,7 @@ fn assembled_tangent_matches_central_differences_of_the_residual() {
         let eq = statics.solve(0, None).unwrap();
         let sys = statics.system();
         // A perturbed state, so that no symmetry hides an error.
-        let mut pos = eq.positions();
+        let mut pos = eq.displacements();
         for (i, p) in pos.iter_mut().enumerate() {
             if !m.nodes[i].support.is_anchor() {
                 *p += Vec3::new(0.003 * ((i % 3) as f64 - 1.0), 0.002 * ((i % 5) as f64 - 2.0), 0.0);

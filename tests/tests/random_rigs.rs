@@ -104,7 +104,7 @@ proptest! {
                 prop_assert!((loads + reactions).norm() <= 1e-8 * scale, "imbalance {:?}", loads + reactions);
                 if let Stability::Stable = eq.stability {
                     let sys = statics.system();
-                    let pos = eq.positions();
+                    let pos = eq.displacements();
                     let k = sys.dense(&sys.assemble(&m, &pos, Part::Total));
                     let kscale = k.abs().max().max(1.0);
                     prop_assert!((&k - k.transpose()).abs().max() <= 1e-12 * kscale);

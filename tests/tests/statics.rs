@@ -117,7 +117,7 @@ fn two_bar_truss_loaded_past_its_limit_reports_the_limit_point_not_the_inverted_
     let (_, p_lim) = truss_limit();
     let over = 1.05;
     match Statics::new(&model(&truss(over * p_lim))).solve(0, None) {
-        Err(SolveError::LimitPoint { load_factor }) => {
+        Err(SolveError::LimitPoint { load_factor, .. }) => {
             let reached = load_factor * over;
             assert!(
                 (0.98..=1.0 + 1e-9).contains(&reached),

@@ -17,7 +17,9 @@ use nalgebra::{DMatrix, SymmetricEigen};
 use serde::Serialize;
 
 use crate::model::Vec3;
-use crate::solve::system::{Factor, Part};
+use crate::solve::factor::Factor;
+use crate::solve::stability::{Definiteness, verdict};
+use crate::solve::system::Part;
 use crate::solve::{Equilibrium, Statics};
 use crate::watch::Watch;
 
@@ -57,6 +59,9 @@ pub enum ModeError {
     /// The equilibrium is not stable, so it has no natural frequencies.
     #[error("no natural frequencies about a state that is not stable: {0}")]
     NotStable(String),
+    /// Every direction of every node is held.
+    #[error("nothing is free to vibrate: every node is held in every direction")]
+    NothingFree,
     /// No node has mass in a free direction.
     #[error("no mass can move: give the free nodes a mass (kg)")]
     NoMass,
@@ -82,10 +87,17 @@ pub fn modes_watched(statics: &Statics, eq: &Equilibrium, count: usize, watch: &
     }
     let model = statics.model();
     let sys = statics.system();
-    let pos = eq.positions();
-    let k = sys.assemble(model, &pos, Part::Total);
+    if sys.size() == 0 {
+        return Err(ModeError::NothingFree);
+    }
+    let disp = eq.displacements();
+    let k = sys.assemble(model, &disp, Part::Total);
     if watch.stopped() {
         return Err(ModeError::Stopped);
+    }
+    // The one stability verdict: a neutral state has a zero frequency, never a number.
+    if verdict(sys, &k).0 != Definiteness::Positive {
+        return Err(ModeError::NotStable(statics.stability_at(&disp).describe()));
     }
     let factor = sys
         .factor(&k, 0.0)

@@ -13,13 +13,19 @@
 //!   spectral radius at infinite frequency `ρ∞` setting the numerical dissipation
 //!   (ρ∞ = 1: none).
 //!
+//! The state is the displacement `u` of every node from its drawn position, and each step
+//! solves for its own increment `Δ = u₁ − u₀`: the inertia term `M (2Δ/Δt − 2v₀)/Δt` is then
+//! formed from a number known to full relative precision, so very small time steps lose
+//! nothing to the round-off of absolute coordinates (which would grow as `|x| ε / Δt²`).
+//!
 //! Physical damping is Rayleigh damping `C = a₀ M + a₁ K₀` with `K₀` the tangent stiffness at
 //! the equilibrium the motion is about; see [`rayleigh_coefficients`].
 
 use serde::Serialize;
 
 use crate::model::{Model, Vec3};
-use crate::solve::system::{DofMap, Factor, Part, System};
+use crate::solve::factor::Factor;
+use crate::solve::system::{DofMap, Part, System, member_vector};
 
 /// Time-integration scheme.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
@@ -92,7 +98,9 @@ impl Energy {
 pub enum MotionError {
     #[error("time step {0} s is not positive and finite")]
     BadStep(f64),
-    #[error("the step at t = {time:.6} s did not converge (relative residual {residual:.3e}); use a smaller time step")]
+    #[error(
+        "the step at t = {time:.6} s did not converge (relative residual {residual:.3e}), even cut to 1/64 of the time step; a member may be snapping violently: use a smaller time step or some damping"
+    )]
     NotConverged { time: f64, residual: f64 },
     #[error("node `{0}` is not part of the rig")]
     BadNode(String),
@@ -105,8 +113,8 @@ pub struct Motion {
     settings: MotionSettings,
     load: Vec<Vec3>,
     mass: Vec<f64>,
-    /// Current positions of all nodes (m).
-    pos: Vec<Vec3>,
+    /// Current displacements of all nodes from the drawn geometry (m).
+    disp: Vec<Vec3>,
     /// Velocity on free DOFs (m/s).
     vel: Vec<f64>,
     /// Acceleration on free DOFs (m/s²), used by generalized-α.
@@ -119,8 +127,6 @@ pub struct Motion {
     damped: f64,
     slack: Vec<bool>,
     slack_events: usize,
-    /// Size of the rig (m), for round-off tests on position corrections.
-    length_scale: f64,
     /// Factorised step Jacobian and the step size it was built for, reused across Newton
     /// iterations and steps (modified Newton) until convergence slows.
     jacobian: Option<(f64, Factor)>,
@@ -153,15 +159,17 @@ impl Motion {
             }
         }
         let load = model.case_forces(case);
-        let k0 = system.assemble(&model, about, Part::Total);
-        let slack = member_slack(&model, start);
+        let to_disp = |p: &[Vec3]| -> Vec<Vec3> { p.iter().zip(&model.nodes).map(|(x, n)| x - n.position).collect() };
+        let start = to_disp(start);
+        let k0 = system.assemble(&model, &to_disp(about), Part::Total);
+        let slack = member_slack(&model, &start);
         let mut motion = Motion {
             model,
             system,
             settings,
             load,
             mass,
-            pos: start.to_vec(),
+            disp: start,
             vel,
             acc: vec![0.0; n],
             k0,
@@ -170,10 +178,8 @@ impl Motion {
             damped: 0.0,
             slack,
             slack_events: 0,
-            length_scale: 0.0,
             jacobian: None,
         };
-        motion.length_scale = motion.model.extent();
         motion.acc = motion.initial_acceleration();
         motion.initial = motion.energy().mechanical();
         Ok(motion)
@@ -183,7 +189,7 @@ impl Motion {
     fn initial_acceleration(&self) -> Vec<f64> {
         let r = self
             .system
-            .evaluate(&self.model, &self.pos, &self.load, 1.0)
+            .evaluate(&self.model, &self.disp, &self.load, 1.0)
             .map(|e| e.residual)
             .unwrap_or_else(|| vec![0.0; self.mass.len()]);
         let cv = self.damping_times(&self.vel);
@@ -215,13 +221,18 @@ impl Motion {
     }
 
     /// Current node positions (m).
-    pub fn positions(&self) -> &[Vec3] {
-        &self.pos
+    pub fn positions(&self) -> Vec<Vec3> {
+        self.disp.iter().zip(&self.model.nodes).map(|(u, n)| n.position + u).collect()
+    }
+
+    /// Current node displacements from the drawn geometry (m).
+    pub fn displacements(&self) -> &[Vec3] {
+        &self.disp
     }
 
     /// Current node velocities (m/s).
     pub fn velocities(&self) -> Vec<Vec3> {
-        let mut out = vec![Vec3::zeros(); self.pos.len()];
+        let mut out = vec![Vec3::zeros(); self.disp.len()];
         for (node, a, i) in self.system.dofs.free() {
             out[node][a] = self.vel[i];
         }
@@ -233,7 +244,7 @@ impl Motion {
         self.model
             .members
             .iter()
-            .map(|m| m.kind.state((self.pos[m.ends[1]] - self.pos[m.ends[0]]).norm()).force)
+            .map(|m| m.kind.state(member_vector(&self.model, m, &self.disp).norm()).force)
             .collect()
     }
 
@@ -249,15 +260,9 @@ impl Motion {
             .model
             .members
             .iter()
-            .map(|m| m.kind.state((self.pos[m.ends[1]] - self.pos[m.ends[0]]).norm()).energy)
+            .map(|m| m.kind.state(member_vector(&self.model, m, &self.disp).norm()).energy)
             .sum();
-        let load = -self
-            .model
-            .nodes
-            .iter()
-            .enumerate()
-            .map(|(i, n)| self.load[i].dot(&(self.pos[i] - n.position)))
-            .sum::<f64>();
+        let load = -self.disp.iter().zip(&self.load).map(|(u, f)| f.dot(u)).sum::<f64>();
         let numerical = self.initial - (kinetic + strain + load) - self.damped;
         Energy {
             kinetic,
@@ -287,12 +292,12 @@ impl Motion {
     }
 
     fn step_split(&mut self, dt: f64, depth: u32) -> Result<(), MotionError> {
-        let saved = (self.pos.clone(), self.vel.clone(), self.acc.clone());
+        let saved = (self.disp.clone(), self.vel.clone(), self.acc.clone());
         match self.step_once(dt) {
             Ok(()) => Ok(()),
             Err(e) if depth >= 6 => Err(e),
             Err(_) => {
-                (self.pos, self.vel, self.acc) = saved;
+                (self.disp, self.vel, self.acc) = saved;
                 self.step_split(0.5 * dt, depth + 1)?;
                 self.step_split(0.5 * dt, depth + 1)
             }
@@ -310,24 +315,24 @@ impl Motion {
         let cv = self.damping_times(&vm);
         self.damped += dt * vm.iter().zip(&cv).map(|(v, c)| v * c).sum::<f64>();
         self.time += dt;
-        let slack = member_slack(&self.model, &self.pos);
+        let slack = member_slack(&self.model, &self.disp);
         self.slack_events += slack.iter().zip(&self.slack).filter(|(now, was)| **now && !**was).count();
         self.slack = slack;
         Ok(())
     }
 
     fn step_midpoint(&mut self, dt: f64) -> Result<(), MotionError> {
-        let x0 = self.pos.clone();
+        let x0 = self.disp.clone();
         let v0 = self.vel.clone();
-        // Predictor: constant velocity.
-        let mut x1 = x0.clone();
-        self.system.add_scaled(&mut x1, &v0, dt);
         let n = self.system.size();
+        // Unknown: the step's increment Δ on free DOFs; predictor: constant velocity.
+        let mut inc: Vec<f64> = v0.iter().map(|v| v * dt).collect();
         let (a0, a1) = self.settings.rayleigh;
         let mut prev_rel = f64::INFINITY;
         for it in 0..=self.settings.max_iterations {
-            let dx = diff(&self.system, &x1, &x0);
-            let v1: Vec<f64> = dx.iter().zip(&v0).map(|(d, v)| 2.0 * d / dt - v).collect();
+            let mut x1 = x0.clone();
+            self.system.add_scaled(&mut x1, &inc, 1.0);
+            let v1: Vec<f64> = inc.iter().zip(&v0).map(|(d, v)| 2.0 * d / dt - v).collect();
             let vm: Vec<f64> = v1.iter().zip(&v0).map(|(a, b)| 0.5 * (a + b)).collect();
             let cvm = self.damping_times(&vm);
             let (g, scale) = discrete_gradient(&self.model, &self.system, &x0, &x1);
@@ -340,7 +345,7 @@ impl Motion {
             }
             let rel = norm(&r) / rscale2.sqrt().max(1e-12);
             if rel <= self.settings.tolerance || n == 0 {
-                self.pos = x1;
+                self.disp = x1;
                 self.vel = v1;
                 return Ok(());
             }
@@ -360,12 +365,14 @@ impl Motion {
                 mass: 2.0 / (dt * dt) + a0 / dt,
             };
             let delta = self.correction(&mid, form, dt, slow, r, rel)?;
-            self.system.add_scaled(&mut x1, &delta, -1.0);
-            if rel <= 1e3 * self.settings.tolerance && norm(&delta) <= 1e-14 * self.length_scale {
+            inc.iter_mut().zip(&delta).for_each(|(d, c)| *d -= c);
+            let size = norm(&inc).max(1e-300);
+            if rel <= 1e3 * self.settings.tolerance && norm(&delta) <= 1e-14 * size {
                 // Converged to round-off: the residual cannot drop further.
-                let dx = diff(&self.system, &x1, &x0);
-                self.vel = dx.iter().zip(&v0).map(|(d, v)| 2.0 * d / dt - v).collect();
-                self.pos = x1;
+                let mut x1 = x0.clone();
+                self.system.add_scaled(&mut x1, &inc, 1.0);
+                self.vel = inc.iter().zip(&v0).map(|(d, v)| 2.0 * d / dt - v).collect();
+                self.disp = x1;
                 return Ok(());
             }
         }
@@ -378,19 +385,19 @@ impl Motion {
         let gamma = 0.5 - am + af;
         let beta = 0.25 * (1.0 - am + af).powi(2);
         let n = self.system.size();
-        let x0 = self.pos.clone();
+        let x0 = self.disp.clone();
         let (v0, acc0) = (self.vel.clone(), self.acc.clone());
         let (a0r, a1r) = self.settings.rayleigh;
-        let mut x1 = x0.clone();
-        self.system.add_scaled(&mut x1, &v0, dt);
+        let mut inc: Vec<f64> = v0.iter().map(|v| v * dt).collect();
         let mut prev_rel = f64::INFINITY;
         for it in 0..=self.settings.max_iterations {
-            let dx = diff(&self.system, &x1, &x0);
+            let dx = &inc;
             let acc1: Vec<f64> = (0..n)
                 .map(|i| (dx[i] - dt * v0[i] - dt * dt * (0.5 - beta) * acc0[i]) / (beta * dt * dt))
                 .collect();
             let v1: Vec<f64> = (0..n).map(|i| v0[i] + dt * ((1.0 - gamma) * acc0[i] + gamma * acc1[i])).collect();
-            let xa: Vec<Vec3> = x0.iter().zip(&x1).map(|(a, b)| a * af + b * (1.0 - af)).collect();
+            let mut xa = x0.clone();
+            self.system.add_scaled(&mut xa, &inc, 1.0 - af);
             let va: Vec<f64> = (0..n).map(|i| af * v0[i] + (1.0 - af) * v1[i]).collect();
             let aa: Vec<f64> = (0..n).map(|i| am * acc0[i] + (1.0 - am) * acc1[i]).collect();
             let eval = self
@@ -405,7 +412,9 @@ impl Motion {
             let inertia = norm(&(0..n).map(|i| self.mass[i] * aa[i]).collect::<Vec<_>>());
             let rel = norm(&r) / eval.scale.max(inertia).max(1e-12);
             if rel <= self.settings.tolerance || n == 0 {
-                self.pos = x1;
+                let mut x1 = x0.clone();
+                self.system.add_scaled(&mut x1, &inc, 1.0);
+                self.disp = x1;
                 self.vel = v1;
                 self.acc = acc1;
                 return Ok(());
@@ -425,7 +434,7 @@ impl Motion {
                 mass: (1.0 - am) / (beta * dt * dt) + c * a0r,
             };
             let delta = self.correction(&xa, form, dt, slow, r, rel)?;
-            self.system.add_scaled(&mut x1, &delta, -1.0);
+            inc.iter_mut().zip(&delta).for_each(|(d, c)| *d -= c);
         }
         unreachable!("loop returns")
     }
@@ -476,22 +485,15 @@ impl Motion {
     }
 }
 
-/// Position difference x1 − x0 on free DOFs.
-fn diff(sys: &System, x1: &[Vec3], x0: &[Vec3]) -> Vec<f64> {
-    let a = sys.gather(x1);
-    let b = sys.gather(x0);
-    a.iter().zip(&b).map(|(a, b)| a - b).collect()
-}
-
 fn norm(v: &[f64]) -> f64 {
     v.iter().map(|x| x * x).sum::<f64>().sqrt()
 }
 
-fn member_slack(model: &Model, pos: &[Vec3]) -> Vec<bool> {
+fn member_slack(model: &Model, disp: &[Vec3]) -> Vec<bool> {
     model
         .members
         .iter()
-        .map(|m| m.kind.state((pos[m.ends[1]] - pos[m.ends[0]]).norm()).slack)
+        .map(|m| m.kind.state(member_vector(model, m, disp).norm()).slack)
         .collect()
 }
 
@@ -505,15 +507,15 @@ fn factor_shifted(sys: &System, jac: &[f64], diag: &[f64]) -> Option<Factor> {
     })
 }
 
-/// Discrete gradient of the strain energy between configurations `x0` and `x1`, on free DOFs,
+/// Discrete gradient of the strain energy between displacements `x0` and `x1`, on free DOFs,
 /// and a per-DOF force scale.
 fn discrete_gradient(model: &Model, sys: &System, x0: &[Vec3], x1: &[Vec3]) -> (Vec<f64>, Vec<f64>) {
     let mut g = vec![Vec3::zeros(); x0.len()];
     let mut s = vec![Vec3::zeros(); x0.len()];
     for m in &model.members {
         let [a, b] = m.ends;
-        let d0 = x0[b] - x0[a];
-        let d1 = x1[b] - x1[a];
+        let d0 = member_vector(model, m, x0);
+        let d1 = member_vector(model, m, x1);
         let (l0, l1) = (d0.norm(), d1.norm());
         // 2 (U(q1) − U(q0))/(q1 − q0) with q = L², q1 − q0 = (L1 − L0)(L1 + L0).
         let coef = 2.0 * m.kind.energy_slope(l0, l1) / (l0 + l1);

@@ -88,9 +88,10 @@ pub fn record(
         energy: Vec::new(),
         slack_events: 0,
     };
+    let about = about - model.nodes[node].position;
     let sample = |m: &Motion, rec: &mut Record| {
         rec.time.push(m.time());
-        rec.displacement.push(m.positions()[node] - about);
+        rec.displacement.push(m.displacements()[node] - about);
         for (h, f) in rec.member_force.iter_mut().zip(m.member_forces()) {
             h.push(f);
         }

@@ -103,6 +103,22 @@ fn finite3(v: (f64, f64, f64)) -> bool {
     v.0.is_finite() && v.1.is_finite() && v.2.is_finite()
 }
 
+/// Largest coordinate accepted (m): far beyond any site grid, small enough that lengths,
+/// forces and energies of a rig stay finite.
+pub const MAX_COORDINATE: f64 = 1e8;
+/// Largest mass (kg), force component (N) and mass per length (kg/m) accepted.
+pub const MAX_MASS: f64 = 1e12;
+pub const MAX_FORCE: f64 = 1e15;
+pub const MAX_MASS_PER_LENGTH: f64 = 1e6;
+/// Largest EA (N) or spring rate (N/m), and largest member rate EA/L0 (N/m), accepted.
+pub const MAX_STIFFNESS: f64 = 1e15;
+pub const MAX_RATE: f64 = 1e18;
+/// Shortest unstressed or free length accepted (m), other than a spring's free length of 0.
+pub const MIN_LENGTH: f64 = 1e-9;
+/// Largest gravity component (m/s²) and load-case gravity multiplier accepted.
+pub const MAX_GRAVITY: f64 = 1e4;
+pub const MAX_MULTIPLIER: f64 = 1e6;
+
 fn v3(v: (f64, f64, f64)) -> Vec3 {
     Vec3::new(v.0, v.1, v.2)
 }
@@ -161,7 +177,17 @@ impl Model {
                 "is not a finite vector",
                 "write three numbers, e.g. (0.0, -9.81, 0.0)",
             ));
+        } else if [p.gravity.0, p.gravity.1, p.gravity.2].iter().any(|g| g.abs() > MAX_GRAVITY) {
+            problems.push(Problem::new(
+                "gravity",
+                format!(
+                    "({}, {}, {}) m/s² is beyond ±{MAX_GRAVITY} m/s²",
+                    p.gravity.0, p.gravity.1, p.gravity.2
+                ),
+                "give the acceleration in m/s², e.g. (0.0, -9.81, 0.0)",
+            ));
         }
+
         let mut nodes = Vec::with_capacity(p.nodes.len());
         for (i, n) in p.nodes.iter().enumerate() {
             let item = format!("node `{}`", n.id);
@@ -180,12 +206,24 @@ impl Model {
                     "position is not finite (NaN or infinity)",
                     "give three finite coordinates in metres",
                 ));
+            } else if [n.at.0, n.at.1, n.at.2].iter().any(|c| c.abs() > MAX_COORDINATE) {
+                problems.push(Problem::new(
+                    &item,
+                    format!("position ({}, {}, {}) m is beyond ±{MAX_COORDINATE:e} m", n.at.0, n.at.1, n.at.2),
+                    "give coordinates in metres relative to a nearby site origin",
+                ));
             }
             if !(n.mass.is_finite() && n.mass >= 0.0) {
                 problems.push(Problem::new(
                     &item,
                     format!("mass {} kg is not allowed", n.mass),
                     "use a mass of 0 kg or more",
+                ));
+            } else if n.mass > MAX_MASS {
+                problems.push(Problem::new(
+                    &item,
+                    format!("mass {:e} kg is beyond {MAX_MASS:e} kg", n.mass),
+                    "give the mass in kilograms",
                 ));
             }
             if p.planar && n.at.2 != 0.0 {
@@ -238,6 +276,15 @@ impl Model {
                     format!("mass per length {} kg/m is not allowed", m.mass_per_length),
                     "use 0 kg/m or more",
                 ));
+            } else if m.mass_per_length > MAX_MASS_PER_LENGTH {
+                problems.push(Problem::new(
+                    &item,
+                    format!(
+                        "mass per length {:e} kg/m is beyond {MAX_MASS_PER_LENGTH:e} kg/m",
+                        m.mass_per_length
+                    ),
+                    "give the mass per metre of unstressed length in kg/m",
+                ));
             }
             let (Some(a), Some(b)) = (a, b) else { continue };
             if a == b {
@@ -248,9 +295,10 @@ impl Model {
             connected[b] = true;
             let drawn = (nodes[b].position - nodes[a].position).norm();
             if !drawn.is_finite() {
+                // Its ends are refused above (not finite, or too far out): nothing to add.
                 continue;
             }
-            if drawn < 1e-9 {
+            if drawn < MIN_LENGTH {
                 problems.push(Problem::new(
                     &item,
                     format!("zero length: nodes `{}` and `{}` coincide", nodes[a].id, nodes[b].id),
@@ -258,7 +306,7 @@ impl Model {
                 ));
                 continue;
             }
-            match resolve_kind(&m.kind, drawn) {
+            match resolve_kind(&m.kind, drawn).and_then(within_bounds) {
                 Ok(kind) => {
                     let w = m.mass_per_length * kind.rest_length() * 0.5;
                     nodes[a].mass += w;
@@ -312,6 +360,12 @@ impl Model {
                     "gravity multiplier is not finite",
                     "use 1 for self-weight, 0 for none",
                 ));
+            } else if c.gravity.abs() > MAX_MULTIPLIER {
+                problems.push(Problem::new(
+                    &item,
+                    format!("gravity multiplier {:e} is beyond ±{MAX_MULTIPLIER:e}", c.gravity),
+                    "use 1 for self-weight, 0 for none",
+                ));
             }
             let mut loads = Vec::new();
             for l in &c.loads {
@@ -326,6 +380,11 @@ impl Model {
                         format!("load on node `{}` is not finite", nodes[n].id),
                         "give three finite force components in newtons",
                     )),
+                    Some(&n) if [l.force.0, l.force.1, l.force.2].iter().any(|f| f.abs() > MAX_FORCE) => problems.push(Problem::new(
+                        &item,
+                        format!("load on node `{}` has a component beyond ±{MAX_FORCE:e} N", nodes[n].id),
+                        "give the force in newtons",
+                    )),
                     Some(&n) => loads.push((n, v3(l.force))),
                 }
             }
@@ -334,6 +393,25 @@ impl Model {
                 gravity: c.gravity,
                 loads,
             });
+        }
+
+        // Weights and loads together must stay finite at every node.
+        for c in &cases {
+            for (i, n) in nodes.iter().enumerate() {
+                let mut f = v3(p.gravity) * (n.mass * c.gravity);
+                for (node, force) in &c.loads {
+                    if *node == i {
+                        f += force;
+                    }
+                }
+                if !f.iter().all(|x| x.is_finite() && x.abs() <= MAX_FORCE) {
+                    problems.push(Problem::new(
+                        format!("load case `{}`", c.name),
+                        format!("the weight and loads on node `{}` add up beyond ±{MAX_FORCE:e} N", n.id),
+                        "check the node's mass, the gravity multiplier and the loads",
+                    ));
+                }
+            }
         }
 
         if problems.is_empty() {
@@ -349,6 +427,35 @@ impl Model {
             Err(problems)
         }
     }
+}
+
+/// Refuses member laws whose numbers would overflow the solver's arithmetic.
+fn within_bounds(kind: MemberKind) -> Result<MemberKind, (String, String)> {
+    let (stiff, what, unit) = match kind {
+        MemberKind::Cable { ea, .. } | MemberKind::Strut { ea, .. } => (ea, "EA", "N"),
+        MemberKind::Spring { k, .. } => (k, "rate", "N/m"),
+    };
+    if stiff > MAX_STIFFNESS {
+        return Err((
+            format!("{what} {stiff:e} {unit} is beyond {MAX_STIFFNESS:e} {unit}"),
+            format!("give the {what} in {unit}"),
+        ));
+    }
+    let l0 = kind.rest_length();
+    let spring = matches!(kind, MemberKind::Spring { .. });
+    if !(l0 >= MIN_LENGTH || (spring && l0 == 0.0)) {
+        return Err((
+            format!("unstressed length {l0:e} m is below {MIN_LENGTH:e} m"),
+            "give a longer unstressed length, or a smaller pretension".into(),
+        ));
+    }
+    if kind.rate().is_nan() || kind.rate() > MAX_RATE {
+        return Err((
+            format!("stiffness EA/L0 = {:e} N/m is beyond {MAX_RATE:e} N/m", kind.rate()),
+            "check EA and the unstressed length".into(),
+        ));
+    }
+    Ok(kind)
 }
 
 /// Resolves the stored member law to a [`MemberKind`] for drawn length `drawn` (m).

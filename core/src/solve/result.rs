@@ -11,8 +11,9 @@ use crate::model::Vec3;
 pub enum Stability {
     /// The tangent stiffness is positive definite: a stable equilibrium.
     Stable,
-    /// The tangent stiffness is singular: `node` can move along `direction` with no
-    /// restoring force.
+    /// The tangent stiffness is singular to working precision (its lowest eigenvalue is below
+    /// 1e-13 of its largest entry, or zero): `node` can move along `direction` with no
+    /// restoring force. A neutral state is never a stable answer.
     Mechanism { node: String, direction: [f64; 3] },
     /// The tangent stiffness has a negative eigenvalue (N/m): the rig would buckle or snap,
     /// most strongly at `node` along `direction`.
@@ -34,7 +35,7 @@ impl Stability {
         match self {
             Stability::Stable => "stable equilibrium".into(),
             Stability::Mechanism { node, direction } => format!(
-                "mechanism: node `{node}` can move along {} with no restoring force; add a member, a support or pretension there",
+                "neutral (a mechanism): node `{node}` can move along {} with no restoring force, the lowest tangent stiffness being zero to working precision; add a member, a support or pretension there",
                 d(direction)
             ),
             Stability::Unstable {
@@ -88,6 +89,68 @@ pub struct Hold {
     pub force: Vec3,
 }
 
+/// How an equilibrium was reached: whether it lies on the load path from the unloaded rig.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+#[serde(tag = "route", rename_all = "snake_case")]
+pub enum Route {
+    /// Followed the load from the unloaded (pretension-only) equilibrium to the full load in
+    /// load steps, every state on the way stable: the state the rig reaches as it is loaded.
+    LoadPath,
+    /// Continued from a nearby equilibrium the caller gave (a drag, a Sweep, a Pull): Newton
+    /// converged from it at once, so it is the same branch as that state.
+    Nearby,
+    /// The unloaded rig is a mechanism (or has no unloaded equilibrium), so the full load was
+    /// applied at once and the equilibrium found by energy minimisation from the drawn
+    /// geometry (a trust-region Newton method). It is an equilibrium under the full load, but
+    /// the load path to it is not traced.
+    GlobalStart,
+    /// Asked for explicitly: the load path lost stability at load factor `critical` (a
+    /// limit point, a bifurcation, or an unstable start), and the rig was followed to the
+    /// stable equilibrium it moves to: a state on another branch than the load path.
+    Followed {
+        /// Load factor at which the load path lost stability (None when the start itself was
+        /// unstable).
+        critical: Option<f64>,
+        /// What was crossed: "limit point", "bifurcation" or "unstable start".
+        crossed: String,
+    },
+}
+
+impl Route {
+    /// One sentence for users, or `None` for the plain load path.
+    pub fn describe(&self) -> Option<String> {
+        match self {
+            Route::LoadPath => None,
+            Route::Nearby => Some("continued from the nearby equilibrium shown before".into()),
+            Route::GlobalStart => Some(
+                "the unloaded rig is a mechanism, so this equilibrium was found by energy minimisation from the drawn geometry under the full load"
+                    .into(),
+            ),
+            Route::Followed { critical, crossed } => Some(match critical {
+                Some(c) => format!(
+                    "followed past a {crossed} at load factor {}: this state is on another branch than the load path (it snapped through)",
+                    sig6(*c)
+                ),
+                None => format!("the drawn state is an {crossed}; followed to the stable state the rig moves to"),
+            }),
+        }
+    }
+}
+
+/// `x` with six significant digits, without an exponent for ordinary load factors.
+pub fn sig6(x: f64) -> String {
+    if x == 0.0 || !x.is_finite() {
+        return format!("{x}");
+    }
+    let magnitude = x.abs().log10().floor() as i32;
+    if (-4..6).contains(&magnitude) {
+        let decimals = (5 - magnitude).max(0) as usize;
+        format!("{x:.decimals$}")
+    } else {
+        format!("{x:.5e}")
+    }
+}
+
 /// A solved equilibrium of one load case.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Equilibrium {
@@ -102,12 +165,20 @@ pub struct Equilibrium {
     pub residual: f64,
     pub stability: Stability,
     pub hold: Option<Hold>,
+    /// How it was reached.
+    pub route: Route,
 }
 
 impl Equilibrium {
     /// Node positions (m), in model order.
     pub fn positions(&self) -> Vec<Vec3> {
         self.nodes.iter().map(|n| n.position).collect()
+    }
+
+    /// Node displacements from the drawn geometry (m), in model order: the solver's own state,
+    /// exact to round-off however far the rig lies from the origin.
+    pub fn displacements(&self) -> Vec<Vec3> {
+        self.nodes.iter().map(|n| n.displacement).collect()
     }
 }
 

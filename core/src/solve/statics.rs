@@ -1,26 +1,35 @@
-//! Large-displacement static equilibrium by Newton's method on the exact tangent stiffness.
+//! Large-displacement static equilibrium: the solver's entry points and result assembly.
 //!
-//! The equilibrium minimises the total potential `Π(x) = Σ U_m(L_m) − λ fᵀ(x − X)` over the
-//! free node positions `x`. Its gradient is the out-of-balance force `r = f_int − λ f` and its
-//! Hessian the tangent stiffness `K_T = K_E + K_G`. Each Newton step solves
-//! `(K_T + μ I) Δ = −r` with a sparse Cholesky factorisation; `μ` stays 0 while `K_T` is
-//! positive definite and grows (Levenberg–Marquardt) where it is singular or the step is
-//! poor. A backtracking line search on `Π` (Armijo condition, Nocedal & Wright, *Numerical
-//! Optimization*, §3.1) makes each step go downhill.
+//! The equilibrium minimises the total potential `Π(u) = Σ U_m(L_m) − λ fᵀu` over the free
+//! node displacements `u`. Its gradient is the out-of-balance force `r = f_int − λ f` and its
+//! Hessian the tangent stiffness `K_T = K_E + K_G`.
 //!
-//! Loads are applied in adaptive steps of the load factor `λ`, starting with the full load.
-//! Once a step starts from a stable state, its Newton iterations must not meet a tangent with
-//! a negative eigenvalue: crossing one means the load path has passed a limit point and the
-//! nearest minimum is on another branch (a snap-through). The step is then cut, and when it
-//! cannot be cut further the limit is reported instead of a silently different answer.
+//! A load case is solved in this order (each stage only when the one before cannot answer):
+//!
+//! 1. **Warm start** (a drag, a Pull, a Sweep): Newton from the nearby state the caller
+//!    gives. Kept only when every step was a full Newton step that reduced the residual and
+//!    the state is stable — then it is the solution nearest that state, on its branch.
+//! 2. **Load path**: the unloaded equilibrium (pretension alone, `λ = 0`), then load steps
+//!    and arc length to `λ = 1` ([`path`](super::path)). A limit point or bifurcation on the
+//!    way is reported with its load factor, never passed silently.
+//! 3. **Global start**, when the unloaded rig is a mechanism or has no unloaded equilibrium:
+//!    a trust-region Newton method from the drawn geometry under the full load, which cannot
+//!    stall at a zero pivot. The result says so ([`Route::GlobalStart`]).
+//!
+//! With [`SolveSettings::follow`] the rig is followed past a critical point (or off an
+//! unstable start) to the stable state it moves to, and the result says that it did.
 
 use std::sync::Arc;
 use std::sync::atomic::{AtomicBool, Ordering};
 
 use nalgebra::{DMatrix, SymmetricEigen};
 
-use super::result::{Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, Principal, Stability};
-use super::system::{DofMap, Factor, Part, System};
+use super::newton::{Converged, Mode, NewtonFail};
+use super::path::{Critical, CriticalKind, PathEnd, Walker};
+use super::relax::Relaxed;
+use super::result::{Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, Principal, Route, Stability, sig6};
+use super::stability::{Definiteness, lowest_mode, verdict};
+use super::system::{DofMap, Part, System, member_vector};
 use crate::model::{Model, Vec3};
 
 /// Settings of the equilibrium solver.
@@ -28,25 +37,27 @@ use crate::model::{Model, Vec3};
 pub struct SolveSettings {
     /// Relative residual `‖r‖ / scale` at which Newton stops (default: 1e-10).
     pub tolerance: f64,
-    /// Newton iterations allowed in one load step (default: 60).
-    pub max_iterations_per_step: usize,
-    /// Newton iterations allowed in all (default: 1000).
+    /// Newton iterations allowed in all (default: 2000).
     pub max_iterations: usize,
-    /// Smallest load-factor step before a limit is reported (default: 1e-4).
+    /// Smallest load-factor step before the path is continued by arc length (default: 1e-4).
     pub min_load_step: f64,
     /// A displacement larger than this multiple of the rig's size means it runs away as a
     /// mechanism (default: 1e3).
     pub runaway_factor: f64,
+    /// Follow the rig past a critical point (limit point, bifurcation) or off an unstable
+    /// start to the stable state it moves to, instead of reporting the critical point
+    /// (default: false; the result's [`Route`] says when it was used).
+    pub follow: bool,
 }
 
 impl Default for SolveSettings {
     fn default() -> Self {
         SolveSettings {
             tolerance: 1e-10,
-            max_iterations_per_step: 60,
-            max_iterations: 1000,
+            max_iterations: 2000,
             min_load_step: 1e-4,
             runaway_factor: 1e3,
+            follow: false,
         }
     }
 }
@@ -62,8 +73,19 @@ pub enum SolveError {
     #[error("mechanism: node `{node}` moves without limit along ({:.3}, {:.3}, {:.3}); add a member or a support that resists that direction, or pretension the members there", direction[0], direction[1], direction[2])]
     Mechanism { node: String, direction: [f64; 3] },
     /// The load path reached a limit point (snap-through or collapse) before full load.
-    #[error("limit point: the rig carries only {:.1} % of the load case before it snaps through or collapses; stiffen or brace it, or reduce the load", load_factor * 100.0)]
-    LimitPoint { load_factor: f64 },
+    #[error("limit point at load factor {}: the rig carries only {} % of the load case before node `{node}` snaps through or collapses (`--follow` shows where it goes); stiffen or brace it, or reduce the load", sig6(*load_factor), sig6(load_factor * 100.0))]
+    LimitPoint {
+        load_factor: f64,
+        node: String,
+        direction: [f64; 3],
+    },
+    /// The load path lost stability at a bifurcation before full load.
+    #[error("bifurcation at load factor {}: beyond {} % of the load case the rig buckles, node `{node}` moving along ({:.3}, {:.3}, {:.3}) (`--follow` shows where it goes); brace it, or reduce the load", sig6(*load_factor), sig6(load_factor * 100.0), direction[0], direction[1], direction[2])]
+    Bifurcation {
+        load_factor: f64,
+        node: String,
+        direction: [f64; 3],
+    },
     /// Newton's method did not reach the tolerance.
     #[error(
         "not converged after {iterations} iterations (relative residual {residual:.3e}, load factor {load_factor:.4}); check for members near slack, very soft parts or a mechanism"
@@ -79,40 +101,37 @@ pub enum SolveError {
     /// The stiffness is not positive definite, so no condensed stiffness exists.
     #[error("no tangent stiffness at an equilibrium that is not stable: {0}")]
     NotStable(String),
+    /// The rig has no members, so there is no equilibrium to find (an empty drawing).
+    #[error("the rig has no members, so there is nothing to solve; draw members between the nodes")]
+    NothingToSolve,
     /// The cancel flag given with [`Statics::cancel_with`] was raised before the solve ended.
     #[error("solve cancelled after {iterations} iterations (a newer request replaced it, or it was stopped); solve again for the answer")]
     Cancelled { iterations: usize },
 }
 
-/// How one Newton solve ended.
-enum NewtonFail {
-    /// Met a tangent with a negative eigenvalue while following the load path.
-    Indefinite,
-    /// Iteration cap or no further progress.
-    Stalled { residual: f64 },
-    /// A node ran away (mechanism).
-    Runaway { node: usize, direction: Vec3 },
-    /// The cancel flag was raised.
-    Cancelled,
-}
+impl SolveError {
+    /// The load factor of a critical point, for limit points and bifurcations.
+    pub fn critical_load_factor(&self) -> Option<f64> {
+        match self {
+            SolveError::LimitPoint { load_factor, .. } | SolveError::Bifurcation { load_factor, .. } => Some(*load_factor),
+            _ => None,
+        }
+    }
 
-struct Converged {
-    residual: f64,
-    definiteness: Definiteness,
-}
-
-/// Work done along the load path.
-struct LoadPath {
-    iterations: usize,
-    steps: usize,
-}
-
-#[derive(Debug, Clone, Copy, PartialEq)]
-enum Definiteness {
-    Positive,
-    /// Singular to working precision.
-    Semi,
-    Indefinite,
+    /// Short machine name of the kind of failure, for JSON documents.
+    pub fn kind(&self) -> &'static str {
+        match self {
+            SolveError::UnknownCase(..) => "unknown_case",
+            SolveError::Mechanism { .. } => "mechanism",
+            SolveError::LimitPoint { .. } => "limit_point",
+            SolveError::Bifurcation { .. } => "bifurcation",
+            SolveError::NotConverged { .. } => "not_converged",
+            SolveError::BadNode(..) => "bad_node",
+            SolveError::NotStable(..) => "not_stable",
+            SolveError::NothingToSolve => "nothing_to_solve",
+            SolveError::Cancelled { .. } => "cancelled",
+        }
+    }
 }
 
 /// Static solver for one model and one set of held degrees of freedom.
@@ -120,14 +139,21 @@ enum Definiteness {
 /// Build once and call [`Statics::solve`] repeatedly (for example while a node is dragged):
 /// the sparse pattern and its symbolic factorisation are reused.
 pub struct Statics<'m> {
-    model: &'m Model,
-    system: System,
+    pub(super) model: &'m Model,
+    pub(super) system: System,
     held: Option<usize>,
     /// Largest member rate `EA/L0` or `k` (N/m): the stiffness scale when all are slack.
-    rate_scale: f64,
+    pub(super) rate_scale: f64,
     pub settings: SolveSettings,
     /// Raised by another thread to abandon a solve (checked before every Newton iteration).
     cancel: Option<Arc<AtomicBool>>,
+}
+
+/// Work done to reach an equilibrium.
+struct Work {
+    iterations: usize,
+    steps: usize,
+    route: Route,
 }
 
 impl<'m> Statics<'m> {
@@ -139,6 +165,14 @@ impl<'m> Statics<'m> {
     /// Solver for `model` with node `node` held at a position given to [`Statics::solve_held`].
     pub fn holding(model: &'m Model, node: usize) -> Self {
         Self::build(model, Some(node))
+    }
+
+    /// A solver for `model` (a variant of `like`'s model with the same nodes and members)
+    /// that holds what `like` holds, sharing its cancel flag.
+    pub(super) fn holding_like(model: &'m Model, like: &Statics) -> Self {
+        let mut s = Self::build(model, like.held);
+        s.cancel = like.cancel.clone();
+        s
     }
 
     fn build(model: &'m Model, held: Option<usize>) -> Self {
@@ -162,7 +196,7 @@ impl<'m> Statics<'m> {
         self
     }
 
-    fn cancelled(&self) -> bool {
+    pub(super) fn cancelled(&self) -> bool {
         self.cancel.as_ref().is_some_and(|f| f.load(Ordering::Relaxed))
     }
 
@@ -197,7 +231,7 @@ impl<'m> Statics<'m> {
     }
 
     /// Equilibrium of load case `case` (index), starting from the drawn geometry, or from
-    /// `warm` (node positions of a nearby equilibrium) when given.
+    /// `warm` (node positions of a nearby equilibrium, m) when given.
     pub fn solve(&self, case: usize, warm: Option<&[Vec3]>) -> Result<Equilibrium, SolveError> {
         if let Some(h) = self.held {
             return Err(SolveError::BadNode(
@@ -226,91 +260,275 @@ impl<'m> Statics<'m> {
         self.run(case, warm, Some((node, position)))
     }
 
+    /// Displacements with every node at its drawn position, the held node at `hold`.
+    fn start(&self, hold: Option<(usize, Vec3)>) -> Vec<Vec3> {
+        let mut u = vec![Vec3::zeros(); self.model.nodes.len()];
+        if let Some((node, p)) = hold {
+            u[node] = p - self.model.nodes[node].position;
+        }
+        u
+    }
+
     fn run(&self, case: usize, warm: Option<&[Vec3]>, hold: Option<(usize, Vec3)>) -> Result<Equilibrium, SolveError> {
         let model = self.model;
         if case >= model.cases.len() {
             return Err(SolveError::UnknownCase(format!("#{case}"), String::new()));
         }
+        if model.members.is_empty() {
+            return Err(SolveError::NothingToSolve);
+        }
         let load = model.case_forces(case);
-        let drawn = drawn_again(model, hold);
+        let start = self.start(hold);
         let mut iterations = 0;
+        let cancelled = |iterations| SolveError::Cancelled { iterations };
 
-        // A warm start tries the full load directly from the nearby state.
+        // 1. A warm start moves only free directions: a held coordinate keeps its drawn
+        //    value (or the hold position), whatever the nearby state had there.
         if let Some(w) = warm
-            && w.len() == drawn.len()
+            && w.len() == start.len()
         {
-            let mut pos = w.to_vec();
-            if let Some((node, p)) = hold {
-                pos[node] = p;
+            let mut u = start.clone();
+            for (n, a, _) in self.system.dofs.free() {
+                u[n][a] = w[n][a] - model.nodes[n].position[a];
             }
-            match self.newton(&mut pos, &load, 1.0, false, &mut iterations) {
-                Ok(c) if c.definiteness != Definiteness::Indefinite => {
-                    return Ok(self.finish(case, pos, &load, c, LoadPath { iterations, steps: 1 }, hold));
+            match self.newton(&mut u, &load, 1.0, Mode::Local { strict: true }, 12, &mut iterations) {
+                Ok(c) if c.clean && c.definiteness == Definiteness::Positive => {
+                    let work = Work {
+                        iterations,
+                        steps: 1,
+                        route: Route::Nearby,
+                    };
+                    return Ok(self.finish(case, u, &load, c, work, hold));
                 }
-                Err(NewtonFail::Cancelled) => return Err(SolveError::Cancelled { iterations }),
+                Err(NewtonFail::Cancelled) => return Err(cancelled(iterations)),
                 _ => {}
             }
         }
 
-        // Equilibrium without load (pretension alone), then load steps.
-        let mut pos = drawn;
-        let mut state = match self.newton(&mut pos, &load, 0.0, false, &mut iterations) {
-            Ok(c) => c,
-            Err(NewtonFail::Runaway { node, direction }) => return Err(self.mechanism(node, direction)),
-            Err(NewtonFail::Cancelled) => return Err(SolveError::Cancelled { iterations }),
-            // No balanced unloaded state (e.g. every cable slack): step the load from the
-            // drawn geometry without path-following checks.
-            Err(_) => {
-                pos = drawn_again(model, hold);
-                Converged {
-                    residual: f64::INFINITY,
-                    definiteness: Definiteness::Semi,
-                }
-            }
-        };
-        let mut lambda = 0.0;
-        let mut step: f64 = 1.0;
-        let mut steps = 0;
-        while lambda < 1.0 {
-            if iterations >= self.settings.max_iterations {
-                return Err(SolveError::NotConverged {
-                    iterations,
-                    residual: state.residual,
-                    load_factor: lambda,
-                });
-            }
-            if self.cancelled() {
-                return Err(SolveError::Cancelled { iterations });
-            }
-            let target = (lambda + step).min(1.0);
-            let strict = state.definiteness == Definiteness::Positive;
-            let mut trial = pos.clone();
-            match self.newton(&mut trial, &load, target, strict, &mut iterations) {
-                Ok(c) if !strict || c.definiteness != Definiteness::Indefinite => {
-                    pos = trial;
-                    lambda = target;
-                    state = c;
-                    steps += 1;
-                    step = (step * 2.0).min(1.0);
-                }
-                Err(NewtonFail::Runaway { node, direction }) => return Err(self.mechanism(node, direction)),
-                Err(NewtonFail::Cancelled) => return Err(SolveError::Cancelled { iterations }),
-                other => {
-                    step *= 0.5;
-                    if step < self.settings.min_load_step {
-                        return Err(match other {
-                            Err(NewtonFail::Stalled { residual }) if !strict => SolveError::NotConverged {
+        // 2. The unloaded equilibrium, then the load path.
+        let mut u = start.clone();
+        match self.newton(&mut u, &load, 0.0, Mode::Local { strict: false }, 60, &mut iterations) {
+            Ok(c) if c.definiteness == Definiteness::Positive => {
+                match self.load_path(u, c, &load, &mut iterations) {
+                    PathEnd::Reached { u, converged, steps } => {
+                        let work = Work {
+                            iterations,
+                            steps,
+                            route: Route::LoadPath,
+                        };
+                        Ok(self.finish(case, u, &load, converged, work, hold))
+                    }
+                    PathEnd::Critical(critical) => {
+                        if self.settings.follow {
+                            self.follow(case, critical, &load, hold, &mut iterations)
+                        } else {
+                            Err(self.critical_error(&critical))
+                        }
+                    }
+                    PathEnd::Stuck { load_factor, residual } => {
+                        // No critical point seen: the global method may still find the state.
+                        self.global(case, &start, &load, hold, &mut iterations).map_err(|e| match e {
+                            SolveError::NotConverged { .. } => SolveError::NotConverged {
                                 iterations,
                                 residual,
-                                load_factor: lambda,
+                                load_factor,
                             },
-                            _ => SolveError::LimitPoint { load_factor: lambda },
-                        });
+                            other => other,
+                        })
                     }
+                    PathEnd::Runaway { node, direction } => Err(self.mechanism(node, direction)),
+                    PathEnd::Cancelled => Err(cancelled(iterations)),
+                }
+            }
+            Err(NewtonFail::Cancelled) => Err(cancelled(iterations)),
+            // 3. No stable unloaded state: the unloaded rig is a mechanism.
+            _ => self.global(case, &start, &load, hold, &mut iterations),
+        }
+    }
+
+    /// The full load at once from `start`: the trust-region method, and where it makes slow
+    /// progress (a quadratic model is poor far from the answer, with many members switching
+    /// between slack and taut), dynamic relaxation to bring the rig close, then the
+    /// trust-region method again to finish.
+    fn global(
+        &self,
+        case: usize,
+        start: &[Vec3],
+        load: &[Vec3],
+        hold: Option<(usize, Vec3)>,
+        iterations: &mut usize,
+    ) -> Result<Equilibrium, SolveError> {
+        let mut u = start.to_vec();
+        let escape = self.settings.follow;
+        let remaining = |done: usize| self.settings.max_iterations.saturating_sub(done);
+        let mut outcome = self.newton(
+            &mut u,
+            load,
+            1.0,
+            Mode::Global { escape },
+            remaining(*iterations).min(60),
+            iterations,
+        );
+        if let Err(NewtonFail::Stalled { .. }) = outcome
+            && let Some(paid) = self.pay_out(start, load, iterations)
+        {
+            u = paid;
+            outcome = self.newton(&mut u, load, 1.0, Mode::Global { escape }, remaining(*iterations), iterations);
+        }
+        if let Err(NewtonFail::Stalled { .. }) = outcome {
+            let budget = (2e8 / (self.model.members.len() + 1) as f64).clamp(2e4, 5e5) as usize;
+            match self.relax(&mut u, load, 1.0, 1e-4, budget) {
+                Relaxed::Runaway { node, direction } => return Err(self.mechanism(node, direction)),
+                Relaxed::Cancelled => return Err(SolveError::Cancelled { iterations: *iterations }),
+                Relaxed::Close | Relaxed::Budget => {}
+            }
+            outcome = self.newton(&mut u, load, 1.0, Mode::Global { escape }, remaining(*iterations), iterations);
+        }
+        match outcome {
+            Ok(c) => {
+                let route = if c.escaped && c.definiteness == Definiteness::Positive {
+                    Route::Followed {
+                        critical: None,
+                        crossed: "unstable equilibrium".into(),
+                    }
+                } else {
+                    Route::GlobalStart
+                };
+                let work = Work {
+                    iterations: *iterations,
+                    steps: 1,
+                    route,
+                };
+                Ok(self.finish(case, u, load, c, work, hold))
+            }
+            Err(NewtonFail::Runaway { node, direction }) => Err(self.mechanism(node, direction)),
+            Err(NewtonFail::Cancelled) => Err(SolveError::Cancelled { iterations: *iterations }),
+            Err(NewtonFail::Stalled { residual }) => Err(SolveError::NotConverged {
+                iterations: *iterations,
+                residual,
+                load_factor: 1.0,
+            }),
+            Err(NewtonFail::Indefinite) => Err(SolveError::NotConverged {
+                iterations: *iterations,
+                residual: f64::NAN,
+                load_factor: 1.0,
+            }),
+        }
+    }
+
+    /// The error for a critical point met on the load path.
+    fn critical_error(&self, c: &Critical) -> SolveError {
+        let (node, direction) = self.dominant_node(&c.mode);
+        match c.kind {
+            CriticalKind::Limit => SolveError::LimitPoint {
+                load_factor: c.load_factor,
+                node,
+                direction,
+            },
+            CriticalKind::Bifurcation => SolveError::Bifurcation {
+                load_factor: c.load_factor,
+                node,
+                direction,
+            },
+        }
+    }
+
+    /// Follows the rig past critical point `c` to a stable state under the full load.
+    ///
+    /// Past a limit point the equilibrium path is traced on by arc length until it meets the
+    /// full load again at a stable state (the snapped-through equilibrium). At a bifurcation,
+    /// or when the path cannot be traced far enough, the state beyond the critical point is
+    /// pushed along the mode that lost its stiffness (to the side of lower potential) and the
+    /// full load applied by the trust-region method, which ends at a minimum.
+    fn follow(
+        &self,
+        case: usize,
+        c: Critical,
+        load: &[Vec3],
+        hold: Option<(usize, Vec3)>,
+        iterations: &mut usize,
+    ) -> Result<Equilibrium, SolveError> {
+        let route = Route::Followed {
+            critical: Some(c.load_factor),
+            crossed: c.kind.name().into(),
+        };
+        if c.kind == CriticalKind::Limit
+            && let Some((u, conv)) = self.trace_to_full_load(&c, load, iterations)
+        {
+            let work = Work {
+                iterations: *iterations,
+                steps: 1,
+                route,
+            };
+            return Ok(self.finish(case, u, load, conv, work, hold));
+        }
+        let extent = self.model.extent();
+        let mut best: Option<(Vec<Vec3>, Converged)> = None;
+        for sign in [1.0, -1.0] {
+            let mut u = c.beyond.u.clone();
+            self.system.add_scaled(&mut u, &c.mode, sign * 1e-3 * extent);
+            if let Ok(conv) = self.newton(&mut u, load, 1.0, Mode::Global { escape: true }, 400, iterations)
+                && conv.definiteness == Definiteness::Positive
+            {
+                let energy = self.system.evaluate(self.model, &u, load, 1.0).map_or(f64::INFINITY, |e| e.energy);
+                let better = best
+                    .as_ref()
+                    .is_none_or(|(b, _)| energy < self.system.evaluate(self.model, b, load, 1.0).map_or(f64::INFINITY, |e| e.energy));
+                if better {
+                    best = Some((u, conv));
                 }
             }
         }
-        Ok(self.finish(case, pos, &load, state, LoadPath { iterations, steps }, hold))
+        match best {
+            Some((u, conv)) => {
+                let work = Work {
+                    iterations: *iterations,
+                    steps: 1,
+                    route,
+                };
+                Ok(self.finish(case, u, load, conv, work, hold))
+            }
+            None => Err(self.critical_error(&c)),
+        }
+    }
+
+    /// Traces the path on from beyond a limit point until it crosses the full load at a stable
+    /// state; the state and its Newton result.
+    fn trace_to_full_load(&self, c: &Critical, load: &[Vec3], iterations: &mut usize) -> Option<(Vec<Vec3>, Converged)> {
+        let t_ref = c.beyond.tangent.0.iter().map(|x| x * x).sum::<f64>().sqrt();
+        let mut walker = Walker::new(self, load, 1.0);
+        walker.u_ref = 1.0;
+        let _ = t_ref;
+        let mut here = walker.point(c.beyond.u.clone(), c.beyond.lambda, Some(&c.beyond.tangent), 0)?;
+        let mut ds = walker.cap(1e-2, &here);
+        for _ in 0..2000 {
+            if self.cancelled() || *iterations + walker.iterations >= self.settings.max_iterations || ds < 1e-12 {
+                break;
+            }
+            let Some(next) = walker.advance(&here, ds) else {
+                ds *= 0.5;
+                continue;
+            };
+            if (here.lambda - 1.0) * (next.lambda - 1.0) <= 0.0 && next.lambda != here.lambda {
+                let frac = (1.0 - here.lambda) / (next.lambda - here.lambda);
+                let mut u1 = here.u.clone();
+                for (a, b) in u1.iter_mut().zip(&next.u) {
+                    *a += (b - *a) * frac;
+                }
+                let mut its = 0;
+                if let Ok(conv) = self.newton(&mut u1, load, 1.0, Mode::Local { strict: false }, 30, &mut its)
+                    && conv.definiteness == Definiteness::Positive
+                {
+                    *iterations += walker.iterations + its;
+                    return Some((u1, conv));
+                }
+            }
+            let grow = (5.0 / next.iterations.max(1) as f64).sqrt().clamp(0.5, 2.0);
+            ds = walker.cap(ds * grow, &next);
+            here = next;
+        }
+        *iterations += walker.iterations;
+        None
     }
 
     fn mechanism(&self, node: usize, direction: Vec3) -> SolveError {
@@ -321,118 +539,14 @@ impl<'m> Statics<'m> {
         }
     }
 
-    /// Newton's method at fixed load factor, updating `pos` in place.
-    fn newton(&self, pos: &mut [Vec3], load: &[Vec3], lambda: f64, strict: bool, total: &mut usize) -> Result<Converged, NewtonFail> {
+    fn finish(&self, case: usize, u: Vec<Vec3>, load: &[Vec3], c: Converged, work: Work, hold: Option<(usize, Vec3)>) -> Equilibrium {
+        let Work { iterations, steps, route } = work;
         let model = self.model;
-        let sys = &self.system;
-        let s = &self.settings;
-        let limit = s.runaway_factor * model.extent();
-        let mut eval = sys
-            .evaluate(model, pos, load, lambda)
-            .ok_or(NewtonFail::Stalled { residual: f64::INFINITY })?;
-        let mut mu = 0.0;
-        for it in 0..=s.max_iterations_per_step {
-            let rnorm = norm(&eval.residual);
-            let rel = rnorm / eval.scale;
-            let values = sys.assemble(model, pos, Part::Total);
-            // Stiffness scale for shifts: the largest diagonal entry, or the stiffest member's
-            // rate when every member is slack.
-            let dmax = sys.max_diagonal(&values).max(self.rate_scale);
-            if rel <= s.tolerance || sys.size() == 0 {
-                let definiteness = definiteness(sys, &values, sys.max_diagonal(&values));
-                let _ = it;
-                return Ok(Converged {
-                    residual: rel,
-                    definiteness,
-                });
-            }
-            if it == s.max_iterations_per_step || *total >= s.max_iterations {
-                return Err(NewtonFail::Stalled { residual: rel });
-            }
-            if self.cancelled() {
-                return Err(NewtonFail::Cancelled);
-            }
-            *total += 1;
-            // Direction: (K + μI) Δ = −r.
-            let factor = match sys.factor(&values, mu) {
-                Some(f) => f,
-                None => {
-                    if mu == 0.0 && strict && sys.factor(&values, 1e-9 * dmax).is_none() {
-                        return Err(NewtonFail::Indefinite);
-                    }
-                    mu = mu.max(1e-6 * dmax);
-                    loop {
-                        if let Some(f) = sys.factor(&values, mu) {
-                            break f;
-                        }
-                        mu *= 10.0;
-                        if mu > 1e12 * dmax {
-                            return Err(NewtonFail::Stalled { residual: rel });
-                        }
-                    }
-                }
-            };
-            let mut dx: Vec<f64> = eval.residual.iter().map(|r| -r).collect();
-            factor.solve_in_place(&mut dx);
-            let slope: f64 = dx.iter().zip(&eval.residual).map(|(d, r)| d * r).sum();
-            // Backtracking line search on the total potential, accepting also a clear drop of
-            // the residual (which round-off in Π cannot show near convergence).
-            let mut alpha = 1.0;
-            let mut accepted = None;
-            for _ in 0..40 {
-                let mut trial = pos.to_vec();
-                sys.add_scaled(&mut trial, &dx, alpha);
-                if let Some(e) = sys.evaluate(model, &trial, load, lambda) {
-                    let armijo = e.energy <= eval.energy + 1e-4 * alpha * slope.min(0.0);
-                    let drop = norm(&e.residual) <= (1.0 - 1e-4 * alpha) * rnorm;
-                    if (armijo && slope < 0.0) || drop {
-                        accepted = Some((trial, e));
-                        break;
-                    }
-                }
-                alpha *= 0.5;
-            }
-            match accepted {
-                Some((trial, e)) => {
-                    pos.copy_from_slice(&trial);
-                    eval = e;
-                    if alpha == 1.0 {
-                        mu = if mu < 1e-8 * dmax { 0.0 } else { mu * 0.1 };
-                    } else if alpha < 1e-3 {
-                        mu = (mu * 100.0).max(1e-4 * dmax);
-                    } else if alpha < 0.1 {
-                        mu = (mu * 10.0).max(1e-6 * dmax);
-                    }
-                }
-                None => {
-                    if mu > 1e10 * dmax {
-                        return Err(NewtonFail::Stalled { residual: rel });
-                    }
-                    mu = (mu * 10.0).max(1e-6 * dmax);
-                }
-            }
-            // Runaway: a node far beyond the rig's own size.
-            if let Some((node, d)) = model
-                .nodes
-                .iter()
-                .enumerate()
-                .map(|(i, n)| (i, pos[i] - n.position))
-                .max_by(|a, b| a.1.norm().total_cmp(&b.1.norm()))
-                && d.norm() > limit
-            {
-                return Err(NewtonFail::Runaway { node, direction: d });
-            }
-        }
-        Err(NewtonFail::Stalled { residual: f64::INFINITY })
-    }
-
-    fn finish(&self, case: usize, pos: Vec<Vec3>, load: &[Vec3], c: Converged, path: LoadPath, hold: Option<(usize, Vec3)>) -> Equilibrium {
-        let LoadPath { iterations, steps } = path;
-        let model = self.model;
-        let (f, _, _) = System::internal(model, &pos).expect("converged state has positive lengths");
+        let internal = System::internal(model, &u).expect("converged state has positive lengths");
+        let f = &internal.force;
         let stability = match c.definiteness {
             Definiteness::Positive => Stability::Stable,
-            other => self.diagnose(&pos, other),
+            other => self.diagnose(&u, other),
         };
         let nodes = model
             .nodes
@@ -451,8 +565,8 @@ impl<'m> Statics<'m> {
                 });
                 NodeResult {
                     id: n.id.clone(),
-                    position: pos[i],
-                    displacement: pos[i] - n.position,
+                    position: n.position + u[i],
+                    displacement: u[i],
                     reaction,
                 }
             })
@@ -461,8 +575,7 @@ impl<'m> Statics<'m> {
             .members
             .iter()
             .map(|m| {
-                let [a, b] = m.ends;
-                let l = (pos[b] - pos[a]).norm();
+                let l = member_vector(model, m, &u).norm();
                 let st = m.kind.state(l);
                 let l0 = m.kind.rest_length();
                 MemberResult {
@@ -495,42 +608,51 @@ impl<'m> Statics<'m> {
             residual: c.residual,
             stability,
             hold,
+            route,
+        }
+    }
+
+    /// The stability verdict at displacements `u` (the one used for every equilibrium).
+    pub fn stability_at(&self, u: &[Vec3]) -> Stability {
+        let values = self.system.assemble(self.model, u, Part::Total);
+        match verdict(&self.system, &values).0 {
+            Definiteness::Positive => Stability::Stable,
+            other => self.diagnose(u, other),
         }
     }
 
     /// Names the node and direction of the lowest tangent-stiffness mode.
-    fn diagnose(&self, pos: &[Vec3], d: Definiteness) -> Stability {
+    fn diagnose(&self, u: &[Vec3], d: Definiteness) -> Stability {
         let sys = &self.system;
-        let values = sys.assemble(self.model, pos, Part::Total);
+        let values = sys.assemble(self.model, u, Part::Total);
         let (eig, vec) = lowest_mode(sys, &values);
-        let (node, dir) = self.dominant_node(&vec);
-        let dmax = sys.max_diagonal(&values).max(self.rate_scale);
-        if d == Definiteness::Indefinite && eig < -1e-10 * dmax {
+        let (node, direction) = self.dominant_node(&vec);
+        if d == Definiteness::Indefinite && eig < 0.0 {
             Stability::Unstable {
                 node,
-                direction: dir,
+                direction,
                 eigenvalue: eig,
             }
         } else {
-            Stability::Mechanism { node, direction: dir }
+            Stability::Mechanism { node, direction }
         }
     }
 
     fn dominant_node(&self, v: &[f64]) -> (String, [f64; 3]) {
         let mut best = (0, Vec3::zeros());
         for (n, d) in self.system.dofs.dof.iter().enumerate() {
-            let mut u = Vec3::zeros();
+            let mut w = Vec3::zeros();
             for a in 0..3 {
                 if let Some(k) = d[a] {
-                    u[a] = v[k];
+                    w[a] = v[k];
                 }
             }
-            if u.norm() > best.1.norm() {
-                best = (n, u);
+            if w.norm() > best.1.norm() {
+                best = (n, w);
             }
         }
-        let u = if best.1.norm() > 0.0 { best.1.normalize() } else { best.1 };
-        (self.model.nodes[best.0].id.clone(), [u.x, u.y, u.z])
+        let w = if best.1.norm() > 0.0 { best.1.normalize() } else { best.1 };
+        (self.model.nodes[best.0].id.clone(), [w.x, w.y, w.z])
     }
 
     /// Tangent stiffness condensed to node `node`'s free directions at equilibrium `eq`.
@@ -539,6 +661,7 @@ impl<'m> Statics<'m> {
     /// condensed stiffness `F⁻¹` (the Schur complement of the other free DOFs). The
     /// displacement fields `U = K_T⁻¹ E F⁻¹` for unit node displacements split it exactly
     /// into `Uᵀ K_E U + Uᵀ K_G U`: the strain-energy share of the elastic and geometric parts.
+    /// Refused unless the equilibrium is stable by the one verdict.
     pub fn node_stiffness(&self, eq: &Equilibrium, node: usize) -> Result<NodeStiffness, SolveError> {
         let model = self.model;
         let id = model
@@ -557,8 +680,11 @@ impl<'m> Statics<'m> {
         if !eq.stability.is_stable() {
             return Err(SolveError::NotStable(eq.stability.describe()));
         }
-        let pos = eq.positions();
-        let kt = sys.assemble(model, &pos, Part::Total);
+        let u = eq.displacements();
+        let kt = sys.assemble(model, &u, Part::Total);
+        if verdict(sys, &kt).0 != Definiteness::Positive {
+            return Err(SolveError::NotStable(self.stability_at(&u).describe()));
+        }
         let factor = sys
             .factor(&kt, 0.0)
             .ok_or_else(|| SolveError::NotStable("the tangent stiffness is not positive definite".into()))?;
@@ -580,13 +706,13 @@ impl<'m> Statics<'m> {
             .try_inverse()
             .ok_or_else(|| SolveError::NotStable("singular flexibility".into()))?;
         // U = K⁻¹ E F⁻¹: columns are the fields for unit node displacements.
-        let u: Vec<Vec<f64>> = (0..m)
+        let fields: Vec<Vec<f64>> = (0..m)
             .map(|j| (0..n).map(|r| (0..m).map(|k| cols[k][r] * total[(k, j)]).sum()).collect())
             .collect();
         let project = |part: Part| -> DMatrix<f64> {
-            let v = sys.assemble(model, &pos, part);
-            let ku: Vec<Vec<f64>> = u.iter().map(|col| sys.mul(&v, col)).collect();
-            DMatrix::from_fn(m, m, |i, j| dot(&u[i], &ku[j]))
+            let v = sys.assemble(model, &u, part);
+            let ku: Vec<Vec<f64>> = fields.iter().map(|col| sys.mul(&v, col)).collect();
+            DMatrix::from_fn(m, m, |i, j| fields[i].iter().zip(&ku[j]).map(|(a, b)| a * b).sum())
         };
         let elastic = project(Part::Elastic);
         let geometric = project(Part::Geometric);
@@ -620,79 +746,6 @@ impl<'m> Statics<'m> {
             principal,
         })
     }
-}
-
-fn drawn_again(model: &Model, hold: Option<(usize, Vec3)>) -> Vec<Vec3> {
-    let mut pos: Vec<Vec3> = model.nodes.iter().map(|n| n.position).collect();
-    if let Some((node, p)) = hold {
-        pos[node] = p;
-    }
-    pos
-}
-
-fn norm(v: &[f64]) -> f64 {
-    v.iter().map(|x| x * x).sum::<f64>().sqrt()
-}
-
-fn dot(a: &[f64], b: &[f64]) -> f64 {
-    a.iter().zip(b).map(|(x, y)| x * y).sum()
-}
-
-fn definiteness(sys: &System, values: &[f64], dmax: f64) -> Definiteness {
-    if sys.size() == 0 || sys.factor(values, 0.0).is_some() {
-        Definiteness::Positive
-    } else if sys.factor(values, 1e-9 * dmax).is_some() {
-        Definiteness::Semi
-    } else {
-        Definiteness::Indefinite
-    }
-}
-
-/// Lowest eigenpair of the stored symmetric matrix by shifted inverse iteration.
-///
-/// The shift `σ` is the smallest of 0, 1e-9·d, 1e-8·d, … (d the largest diagonal entry) at
-/// which `K + σI` factorises, so `(K + σI)⁻¹` is positive definite and its dominant eigenvector
-/// is the lowest mode of `K`. Returns the Rayleigh quotient and the unit vector.
-pub fn lowest_mode(sys: &System, values: &[f64]) -> (f64, Vec<f64>) {
-    let n = sys.size();
-    let dmax = sys.max_diagonal(values);
-    if dmax <= 1e-250 {
-        // Nothing is stiff at all (e.g. one slack, unstressed cable): every free direction is a
-        // zero mode; report the first.
-        let mut v = vec![0.0; n];
-        if let Some(first) = v.first_mut() {
-            *first = 1.0;
-        }
-        return (0.0, v);
-    }
-    let mut shift = 0.0;
-    let factor: Factor = loop {
-        if let Some(f) = sys.factor(values, shift) {
-            break f;
-        }
-        shift = if shift == 0.0 { 1e-9 * dmax } else { shift * 10.0 };
-        if shift > 1e6 * dmax {
-            return (f64::NAN, vec![0.0; n]);
-        }
-    };
-    // Deterministic start with every component non-zero.
-    let mut v: Vec<f64> = (0..n).map(|i| 1.0 + ((i * 7919) % 13) as f64 * 0.01).collect();
-    let mut rq = f64::NAN;
-    for _ in 0..200 {
-        let nv = norm(&v);
-        v.iter_mut().for_each(|x| *x /= nv);
-        let kv = sys.mul(values, &v);
-        let new_rq = dot(&v, &kv);
-        if (new_rq - rq).abs() <= 1e-12 * dmax {
-            rq = new_rq;
-            break;
-        }
-        rq = new_rq;
-        factor.solve_in_place(&mut v);
-    }
-    let nv = norm(&v);
-    v.iter_mut().for_each(|x| *x /= nv);
-    (rq, v)
 }
 
 #[cfg(test)]

@@ -1,18 +1,23 @@
-//! Degrees of freedom, the sparse tangent-stiffness pattern, assembly and factorisation.
+//! The sparse tangent-stiffness pattern, assembly and factorisation.
 //!
 //! The upper triangle of `K_T` over the free degrees of freedom is stored column-compressed.
 //! Its pattern depends only on which nodes members join and which directions are held, so it
 //! is built once; each Newton iteration scatters member blocks into the same value slots and
-//! the sparse Cholesky factorisation reuses one symbolic analysis (fill-reducing ordering and
-//! elimination tree) for every numeric factorisation.
+//! every numeric factorisation reuses one symbolic analysis (fill-reducing ordering and
+//! elimination tree).
+//!
+//! The state is the *displacement* `u` of every node from its drawn position `X`, and a
+//! member's current vector is formed as `(X_b − X_a) + (u_b − u_a)`. The drawn chord
+//! `X_b − X_a` is the same floating-point number at every evaluation and exact when the rig is
+//! translated (the two coordinates are close, so their difference rounds exactly), and the
+//! displacements carry full precision however far the rig sits from the origin: results do not
+//! depend on where the origin is.
 
-use faer::Side;
-use faer::linalg::solvers::Solve;
-use faer::sparse::linalg::solvers::{Llt, SymbolicLlt};
-use faer::sparse::{SparseColMatRef, SymbolicSparseColMatRef};
 use nalgebra::Matrix3;
 
-use crate::model::{Model, Vec3};
+pub use super::dofs::DofMap;
+use super::factor::{Analysis, Factor};
+use crate::model::{Member, Model, Vec3};
 
 /// Which part of the tangent stiffness to assemble.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -25,56 +30,6 @@ pub enum Part {
     Geometric,
 }
 
-/// Map from (node, axis) to a free degree-of-freedom number.
-#[derive(Debug, Clone, PartialEq)]
-pub struct DofMap {
-    pub dof: Vec<[Option<usize>; 3]>,
-    pub count: usize,
-}
-
-impl DofMap {
-    /// Free DOFs of `model`, with the node `held` (if any) treated as fully held.
-    pub fn new(model: &Model, held: Option<usize>) -> Self {
-        let mut count = 0;
-        let dof = model
-            .nodes
-            .iter()
-            .enumerate()
-            .map(|(i, n)| {
-                let mut d = [None; 3];
-                for (axis, slot) in d.iter_mut().enumerate() {
-                    if !n.support.fixed[axis] && held != Some(i) {
-                        *slot = Some(count);
-                        count += 1;
-                    }
-                }
-                d
-            })
-            .collect();
-        DofMap { dof, count }
-    }
-
-    /// Every free DOF as (node, axis, dof number), in node order.
-    pub fn free(&self) -> impl Iterator<Item = (usize, usize, usize)> + '_ {
-        self.dof
-            .iter()
-            .enumerate()
-            .flat_map(|(n, d)| d.iter().enumerate().filter_map(move |(a, s)| s.map(|k| (n, a, k))))
-    }
-
-    /// (node, axis) of free DOF `k`.
-    pub fn locate(&self, k: usize) -> (usize, usize) {
-        for (n, d) in self.dof.iter().enumerate() {
-            for (a, slot) in d.iter().enumerate() {
-                if *slot == Some(k) {
-                    return (n, a);
-                }
-            }
-        }
-        panic!("dof {k} out of range")
-    }
-}
-
 /// Sparse pattern of the upper triangle, with scatter maps and the symbolic factorisation.
 pub struct System {
     pub dofs: DofMap,
@@ -84,60 +39,8 @@ pub struct System {
     scatter: Vec<Vec<(u8, u8, usize)>>,
     /// Value slot of each diagonal entry.
     diag: Vec<usize>,
-    symbolic: Option<SymbolicLlt<usize>>,
+    analysis: Option<Analysis>,
 }
-
-/// A numeric factorisation of `K + σ I`.
-pub struct Factor {
-    llt: Llt<usize, f64>,
-    /// The shift σ that was added (N/m).
-    pub shift: f64,
-}
-
-impl Factor {
-    /// Solves `(K + σI) x = b` in place.
-    pub fn solve_in_place(&self, b: &mut [f64]) {
-        let n = b.len();
-        let mat = faer::MatMut::from_column_major_slice_mut(b, n, 1);
-        self.llt.solve_in_place(mat);
-    }
-
-    /// Solves for `ncols` right-hand sides stored column-major in `b`, in place. Large systems
-    /// with several right-hand sides share the columns out among the machine's threads: the
-    /// triangular solves are limited by reading the factor from memory, and two threads
-    /// reading it at once finish sooner than one thread with all the columns (measured with
-    /// `cargo run --release -p rigwright-core --example solve_timing`).
-    pub fn solve_columns_in_place(&self, b: &mut [f64], ncols: usize) {
-        let n = b.len() / ncols.max(1);
-        debug_assert_eq!(b.len(), n * ncols, "right-hand sides of equal length");
-        let threads = if n >= PARALLEL_SOLVE_MIN_DOFS && ncols >= 2 {
-            std::thread::available_parallelism().map_or(1, |t| t.get())
-        } else {
-            1
-        };
-        self.solve_split(b, ncols, threads);
-    }
-
-    /// Solves with the columns shared out among at most `threads` threads.
-    fn solve_split(&self, b: &mut [f64], ncols: usize, threads: usize) {
-        let n = b.len() / ncols.max(1);
-        let threads = threads.clamp(1, ncols.max(1));
-        if threads == 1 || n == 0 {
-            self.llt.solve_in_place(faer::MatMut::from_column_major_slice_mut(b, n, ncols));
-            return;
-        }
-        let per = ncols.div_ceil(threads);
-        std::thread::scope(|scope| {
-            for chunk in b.chunks_mut(n * per) {
-                let cols = chunk.len() / n;
-                scope.spawn(move || self.llt.solve_in_place(faer::MatMut::from_column_major_slice_mut(chunk, n, cols)));
-            }
-        });
-    }
-}
-
-/// Systems with at least this many DOFs solve several right-hand sides on several threads.
-const PARALLEL_SOLVE_MIN_DOFS: usize = 5000;
 
 /// Values assembled at one configuration.
 pub struct Evaluation {
@@ -145,9 +48,35 @@ pub struct Evaluation {
     pub energy: f64,
     /// Out-of-balance force `f_int − λ f_ext` on free DOFs (N).
     pub residual: Vec<f64>,
-    /// Scale for relative residuals: the larger of the full case load's norm and the norm of
-    /// nodal member-force magnitudes (N).
+    /// Scale for relative residuals (N): the larger of the norm of the full case load on the
+    /// free directions and the norm of the nodal member-force magnitudes on them. Loads on
+    /// held directions go to the supports and never enlarge it.
     pub scale: f64,
+    /// Sum of the magnitudes of the terms of the potential (J): strain energy plus
+    /// `|λ fᵢ uᵢ|`, the size round-off in `energy` is relative to.
+    pub energy_scale: f64,
+}
+
+/// Internal forces at one configuration.
+pub struct Internal {
+    /// Internal nodal force `f_int` on every node (N).
+    pub force: Vec<Vec3>,
+    /// Sum of the magnitudes of member-force components at every node (N), for scales.
+    pub magnitude: Vec<Vec3>,
+    /// Strain energy (J).
+    pub energy: f64,
+}
+
+/// Current vector from end a to end b of `m` at displacements `disp` (m).
+#[inline]
+pub fn member_vector(model: &Model, m: &Member, disp: &[Vec3]) -> Vec3 {
+    let [a, b] = m.ends;
+    (model.nodes[b].position - model.nodes[a].position) + (disp[b] - disp[a])
+}
+
+/// Current length of every member (m).
+pub fn member_lengths(model: &Model, disp: &[Vec3]) -> Vec<f64> {
+    model.members.iter().map(|m| member_vector(model, m, disp).norm()).collect()
 }
 
 impl System {
@@ -202,18 +131,14 @@ impl System {
             })
             .collect();
         let diag = (0..n).map(|j| slot(j, j)).collect();
-        let symbolic = if n == 0 {
-            None
-        } else {
-            SymbolicLlt::try_new(pattern_view(n, &col_ptr, &row_idx), Side::Upper).ok()
-        };
+        let analysis = Analysis::new(n, &col_ptr, &row_idx);
         System {
             dofs,
             col_ptr,
             row_idx,
             scatter,
             diag,
-            symbolic,
+            analysis,
         }
     }
 
@@ -227,86 +152,92 @@ impl System {
         self.row_idx.len()
     }
 
-    /// Gathers the free-DOF vector from node positions.
-    pub fn gather(&self, pos: &[Vec3]) -> Vec<f64> {
-        let mut x = vec![0.0; self.size()];
-        for (n, d) in self.dofs.dof.iter().enumerate() {
-            for a in 0..3 {
-                if let Some(k) = d[a] {
-                    x[k] = pos[n][a];
-                }
-            }
-        }
-        x
+    /// Gathers the free-DOF vector from per-node vectors (displacements, velocities, …).
+    pub fn gather(&self, per_node: &[Vec3]) -> Vec<f64> {
+        self.dofs.free().map(|(n, a, _)| per_node[n][a]).collect()
     }
 
-    /// Adds `alpha · dx` (free-DOF vector) to node positions.
-    pub fn add_scaled(&self, pos: &mut [Vec3], dx: &[f64], alpha: f64) {
-        for (n, d) in self.dofs.dof.iter().enumerate() {
-            for a in 0..3 {
-                if let Some(k) = d[a] {
-                    pos[n][a] += alpha * dx[k];
-                }
-            }
+    /// Per-node vectors from a free-DOF vector (zero on held directions).
+    pub fn scatter_nodes(&self, x: &[f64], nodes: usize) -> Vec<Vec3> {
+        let mut out = vec![Vec3::zeros(); nodes];
+        for (n, a, k) in self.dofs.free() {
+            out[n][a] = x[k];
+        }
+        out
+    }
+
+    /// Adds `alpha · dx` (free-DOF vector) to per-node displacements.
+    pub fn add_scaled(&self, disp: &mut [Vec3], dx: &[f64], alpha: f64) {
+        for (n, a, k) in self.dofs.free() {
+            disp[n][a] += alpha * dx[k];
         }
     }
 
-    /// Internal nodal forces `f_int` (N) on every node, and the energy and scale terms.
-    /// Returns `None` when a member has collapsed to zero length.
-    pub fn internal(model: &Model, pos: &[Vec3]) -> Option<(Vec<Vec3>, Vec<Vec3>, f64)> {
-        let mut f = vec![Vec3::zeros(); pos.len()];
-        let mut abs = vec![Vec3::zeros(); pos.len()];
+    /// Internal nodal forces, force magnitudes and strain energy at displacements `disp`.
+    /// Returns `None` when a member has collapsed to zero length or a value overflows.
+    pub fn internal(model: &Model, disp: &[Vec3]) -> Option<Internal> {
+        let mut force = vec![Vec3::zeros(); disp.len()];
+        let mut magnitude = vec![Vec3::zeros(); disp.len()];
         let mut energy = 0.0;
         for m in &model.members {
             let [a, b] = m.ends;
-            let d = pos[b] - pos[a];
+            let d = member_vector(model, m, disp);
             let l = d.norm();
             if !(l > 0.0 && l.is_finite()) {
                 return None;
             }
             let s = m.kind.state(l);
             let fe = d * (s.force / l);
-            f[a] -= fe;
-            f[b] += fe;
+            force[a] -= fe;
+            force[b] += fe;
             let fa = fe.abs();
-            abs[a] += fa;
-            abs[b] += fa;
+            magnitude[a] += fa;
+            magnitude[b] += fa;
             energy += s.energy;
         }
-        Some((f, abs, energy))
+        energy.is_finite().then_some(Internal { force, magnitude, energy })
     }
 
-    /// Energy, residual and scale at `pos` under `lambda` × the load vector `load`.
-    pub fn evaluate(&self, model: &Model, pos: &[Vec3], load: &[Vec3], lambda: f64) -> Option<Evaluation> {
-        let (f, abs, mut energy) = Self::internal(model, pos)?;
+    /// Energy, residual and scale at displacements `disp` under `lambda` × the load `load`.
+    pub fn evaluate(&self, model: &Model, disp: &[Vec3], load: &[Vec3], lambda: f64) -> Option<Evaluation> {
+        let Internal {
+            force,
+            magnitude,
+            mut energy,
+        } = Self::internal(model, disp)?;
         let mut residual = vec![0.0; self.size()];
         let mut scale2 = 0.0;
         let mut load2 = 0.0;
-        for (n, d) in self.dofs.dof.iter().enumerate() {
-            let du = pos[n] - model.nodes[n].position;
-            energy -= lambda * load[n].dot(&du);
-            for a in 0..3 {
-                // The full case load sets the scale even part-way along the load path.
-                load2 += (lambda.max(1.0) * load[n][a]).powi(2);
-                if let Some(k) = d[a] {
-                    residual[k] = f[n][a] - lambda * load[n][a];
-                    scale2 += abs[n][a].powi(2);
-                }
-            }
+        let mut energy_scale = energy.abs();
+        for (n, a, k) in self.dofs.free() {
+            let work = lambda * load[n][a] * disp[n][a];
+            energy -= work;
+            energy_scale += work.abs();
+            residual[k] = force[n][a] - lambda * load[n][a];
+            scale2 += magnitude[n][a].powi(2);
+            // The full case load sets the scale even part-way along the load path.
+            load2 += (lambda.abs().max(1.0) * load[n][a]).powi(2);
         }
-        if !energy.is_finite() {
+        if !(energy.is_finite() && residual.iter().all(|r| r.is_finite())) {
             return None;
         }
-        let scale = scale2.sqrt().max(load2.sqrt()).max(1e-9);
-        Some(Evaluation { energy, residual, scale })
+        let scale = scale2.sqrt().max(load2.sqrt()).max(1e-12);
+        Some(Evaluation {
+            energy,
+            residual,
+            scale,
+            energy_scale,
+        })
     }
 
-    /// Assembles the chosen part of the tangent stiffness at `pos` into upper-triangle values.
-    pub fn assemble(&self, model: &Model, pos: &[Vec3], part: Part) -> Vec<f64> {
+    /// Assembles the chosen part of the tangent stiffness at `disp` into upper-triangle values.
+    pub fn assemble(&self, model: &Model, disp: &[Vec3], part: Part) -> Vec<f64> {
         let mut values = vec![0.0; self.nonzeros()];
         for (m, scatter) in model.members.iter().zip(&self.scatter) {
-            let [a, b] = m.ends;
-            let d = pos[b] - pos[a];
+            if scatter.is_empty() {
+                continue;
+            }
+            let d = member_vector(model, m, disp);
             let l = d.norm();
             if l.partial_cmp(&0.0) != Some(std::cmp::Ordering::Greater) {
                 continue;
@@ -331,26 +262,47 @@ impl System {
         self.diag.iter().map(|&s| values[s].abs()).fold(1e-300, f64::max)
     }
 
+    /// Largest entry magnitude (N/m), at least 1e-300: the norm the stability verdict
+    /// compares eigenvalues with.
+    pub fn max_entry(&self, values: &[f64]) -> f64 {
+        values.iter().map(|v| v.abs()).fold(1e-300, f64::max)
+    }
+
+    fn shifted<'v>(&self, values: &'v [f64], shift: f64, buf: &'v mut Vec<f64>) -> &'v [f64] {
+        if shift == 0.0 {
+            return values;
+        }
+        buf.clear();
+        buf.extend_from_slice(values);
+        for &s in &self.diag {
+            buf[s] += shift;
+        }
+        buf
+    }
+
     /// Cholesky factorisation of `K + σ I`, or `None` if it is not positive definite.
     pub fn factor(&self, values: &[f64], shift: f64) -> Option<Factor> {
-        let symbolic = self.symbolic.as_ref()?;
-        let shifted;
-        let vals: &[f64] = if shift != 0.0 {
-            let mut v = values.to_vec();
-            for &s in &self.diag {
-                v[s] += shift;
-            }
-            shifted = v;
-            &shifted
-        } else {
-            values
-        };
-        let n = self.size();
-        let sym = pattern_view(n, &self.col_ptr, &self.row_idx);
-        let mat = SparseColMatRef::new(sym, vals);
-        Llt::try_new_with_symbolic(symbolic.clone(), mat, Side::Upper)
-            .ok()
-            .map(|llt| Factor { llt, shift })
+        let analysis = self.analysis.as_ref()?;
+        let mut buf = Vec::new();
+        let vals = self.shifted(values, shift, &mut buf);
+        let mut f = analysis.llt(self.size(), &self.col_ptr, &self.row_idx, vals)?;
+        f.shift = shift;
+        Some(f)
+    }
+
+    /// `LDLᵀ` factorisation of `K + σ I` for a matrix that may be indefinite (its inertia is
+    /// [`Factor::negative_eigenvalues`]), or `None` at a zero pivot.
+    pub fn factor_indefinite(&self, values: &[f64], shift: f64) -> Option<Factor> {
+        let analysis = self.analysis.as_ref()?;
+        let mut buf = Vec::new();
+        let vals = self.shifted(values, shift, &mut buf);
+        if let Some(mut f) = analysis.llt(self.size(), &self.col_ptr, &self.row_idx, vals) {
+            f.shift = shift;
+            return Some(f);
+        }
+        let mut f = analysis.ldlt(self.size(), &self.col_ptr, &self.row_idx, vals)?;
+        f.shift = shift;
+        Some(f)
     }
 
     /// `y = K x` for the symmetric matrix stored as its upper triangle.
@@ -381,13 +333,7 @@ impl System {
         }
         k
     }
-}
 
-fn pattern_view<'a>(n: usize, col_ptr: &'a [usize], row_idx: &'a [usize]) -> SymbolicSparseColMatRef<'a, usize> {
-    SymbolicSparseColMatRef::new_checked(n, n, col_ptr, None, row_idx)
-}
-
-impl System {
     /// Adds `diag[k]` to diagonal entry `k` of stored values.
     pub fn add_to_diagonal(&self, values: &mut [f64], diag: &[f64]) {
         for (&s, d) in self.diag.iter().zip(diag) {
@@ -400,15 +346,20 @@ impl System {
 mod tests {
     use super::*;
 
+    fn net() -> (Model, System, Vec<Vec3>) {
+        let model = crate::gallery::cable_net(6, 1.0, 1e6, 500.0, 1.0).validate().unwrap();
+        let sys = System::new(&model, DofMap::new(&model, None));
+        let disp = vec![Vec3::zeros(); model.nodes.len()];
+        (model, sys, disp)
+    }
+
     /// Shared out among threads (evenly or not), the columns solve to the same answers as in
     /// one call.
     #[test]
     fn columns_split_over_threads_solve_as_in_one_call() {
-        let model = crate::gallery::cable_net(6, 1.0, 1e6, 500.0, 1.0).validate().unwrap();
-        let sys = System::new(&model, DofMap::new(&model, None));
-        let pos: Vec<Vec3> = model.nodes.iter().map(|n| n.position).collect();
+        let (model, sys, disp) = net();
         let factor = sys
-            .factor(&sys.assemble(&model, &pos, Part::Total), 0.0)
+            .factor(&sys.assemble(&model, &disp, Part::Total), 0.0)
             .expect("positive definite");
         let (n, ncols) = (sys.size(), 5);
         let rhs: Vec<f64> = (0..n * ncols).map(|i| ((i * 7) % 13) as f64 - 6.0).collect();
@@ -422,9 +373,42 @@ mod tests {
             assert!(worst <= 1e-12 * size, "{threads} threads: {worst}");
         }
         // And the answer solves the system: K x = b, column by column.
-        let k = sys.dense(&sys.assemble(&model, &pos, Part::Total));
+        let k = sys.dense(&sys.assemble(&model, &disp, Part::Total));
         let x = nalgebra::DMatrix::from_column_slice(n, ncols, &one);
         let b = nalgebra::DMatrix::from_column_slice(n, ncols, &rhs);
         assert!((k * x - &b).amax() < 1e-9 * b.amax());
+    }
+
+    /// The `LDLᵀ` factor of an indefinite matrix solves it and counts its negative
+    /// eigenvalues as nalgebra's symmetric eigensolver does (Sylvester's law of inertia).
+    #[test]
+    fn indefinite_factor_solves_and_counts_negative_eigenvalues() {
+        let (model, sys, disp) = net();
+        let k = sys.assemble(&model, &disp, Part::Total);
+        let dense = sys.dense(&k);
+        let eig = nalgebra::SymmetricEigen::new(dense.clone()).eigenvalues;
+        let mut sorted: Vec<f64> = eig.iter().copied().collect();
+        sorted.sort_by(f64::total_cmp);
+        // Shifts between eigenvalues give every inertia from 0 to a dozen.
+        for count in [0usize, 1, 3, 12] {
+            let shift = if count == 0 {
+                0.5 * sorted[0]
+            } else {
+                0.5 * (sorted[count - 1] + sorted[count])
+            };
+            let f = sys.factor_indefinite(&k, -shift).expect("no zero pivot");
+            assert_eq!(f.negative_eigenvalues(), count, "shift {shift}");
+            let n = sys.size();
+            let b: Vec<f64> = (0..n).map(|i| ((i * 5) % 11) as f64 - 5.0).collect();
+            let mut x = b.clone();
+            f.solve_in_place(&mut x);
+            let shifted = &dense - nalgebra::DMatrix::identity(n, n) * shift;
+            let r = shifted * nalgebra::DVector::from_column_slice(&x) - nalgebra::DVector::from_column_slice(&b);
+            assert!(
+                r.amax() < 1e-8 * b.iter().fold(0.0f64, |m, v| m.max(v.abs())),
+                "count {count}: {}",
+                r.amax()
+            );
+        }
     }
 }

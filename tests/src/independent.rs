@@ -1,0 +1,289 @@
+//! Checks of a solved state written from the member laws alone, sharing no code with the
+//! solver: the out-of-balance force on the free directions, the dense tangent stiffness and
+//! its eigenvalues (nalgebra's symmetric eigensolver), and an energy minimiser of its own.
+//!
+//! Member laws (shared REFERENCES §1, common practice): with current vector `d` from end a to
+//! end b, `L = |d|`, the axial force is `N = EA (L − L0)/L0` for a cable or strut (a cable with
+//! `L ≤ L0` carries nothing) and `N = k (L − L0)` for a spring; end b feels `−N d/L`, end a
+//! `+N d/L` (internal forces `f_int` are their negatives), and the 3×3 tangent block is
+//! `k_a ê êᵀ + (N/L)(I − ê êᵀ)`.
+
+use nalgebra::{DMatrix, DVector, Matrix3, SymmetricEigen, Vector3};
+use rigwright_core::{Equilibrium, MemberKind, Model};
+
+/// Axial force and axial tangent of a member at length `l`.
+fn law(kind: &MemberKind, l: f64) -> (f64, f64) {
+    match *kind {
+        MemberKind::Cable { ea, l0 } => {
+            if l <= l0 {
+                (0.0, 0.0)
+            } else {
+                (ea * (l - l0) / l0, ea / l0)
+            }
+        }
+        MemberKind::Strut { ea, l0 } => (ea * (l - l0) / l0, ea / l0),
+        MemberKind::Spring { k, l0 } => (k * (l - l0), k),
+    }
+}
+
+/// Free directions of the model as (node, axis), in node order.
+pub fn free_dofs(model: &Model) -> Vec<(usize, usize)> {
+    let mut out = Vec::new();
+    for (i, n) in model.nodes.iter().enumerate() {
+        for a in 0..3 {
+            if !n.support.fixed[a] {
+                out.push((i, a));
+            }
+        }
+    }
+    out
+}
+
+fn vector(model: &Model, u: &[Vector3<f64>], a: usize, b: usize) -> Vector3<f64> {
+    (model.nodes[b].position - model.nodes[a].position) + (u[b] - u[a])
+}
+
+/// Relative out-of-balance force on the free directions of case `case` at displacements `u`:
+/// `‖f_int − f_ext‖ / max(‖f_ext‖, ‖Σ |member force components|‖)` over the free directions.
+pub fn residual(model: &Model, case: usize, u: &[Vector3<f64>]) -> f64 {
+    let n = model.nodes.len();
+    let mut f = vec![Vector3::zeros(); n];
+    let mut mag = vec![Vector3::zeros(); n];
+    for m in &model.members {
+        let [a, b] = m.ends;
+        let d = vector(model, u, a, b);
+        let l = d.norm();
+        let (force, _) = law(&m.kind, l);
+        let fe = d * (force / l);
+        f[b] += fe;
+        f[a] -= fe;
+        mag[a] += fe.abs();
+        mag[b] += fe.abs();
+    }
+    let c = &model.cases[case];
+    let mut ext = vec![Vector3::zeros(); n];
+    for (i, node) in model.nodes.iter().enumerate() {
+        ext[i] = model.gravity * (node.mass * c.gravity);
+    }
+    for (node, force) in &c.loads {
+        ext[*node] += force;
+    }
+    let (mut r2, mut s2, mut e2) = (0.0f64, 0.0f64, 0.0f64);
+    for (i, a) in free_dofs(model) {
+        r2 += (f[i][a] - ext[i][a]).powi(2);
+        s2 += mag[i][a].powi(2);
+        e2 += ext[i][a].powi(2);
+    }
+    r2.sqrt() / s2.sqrt().max(e2.sqrt()).max(1e-12)
+}
+
+/// Dense tangent stiffness on the free directions at displacements `u` (N/m).
+pub fn tangent(model: &Model, u: &[Vector3<f64>]) -> DMatrix<f64> {
+    let dofs = free_dofs(model);
+    let mut index = vec![[None; 3]; model.nodes.len()];
+    for (k, &(i, a)) in dofs.iter().enumerate() {
+        index[i][a] = Some(k);
+    }
+    let mut k = DMatrix::zeros(dofs.len(), dofs.len());
+    for m in &model.members {
+        let [a, b] = m.ends;
+        let d = vector(model, u, a, b);
+        let l = d.norm();
+        let (force, ka) = law(&m.kind, l);
+        let e = d / l;
+        let eet = e * e.transpose();
+        let block: Matrix3<f64> = eet * ka + (Matrix3::identity() - eet) * (force / l);
+        for (p, sp) in [(a, 1.0), (b, -1.0)] {
+            for (q, sq) in [(a, 1.0), (b, -1.0)] {
+                for i in 0..3 {
+                    for j in 0..3 {
+                        if let (Some(r), Some(c)) = (index[p][i], index[q][j]) {
+                            k[(r, c)] += sp * sq * block[(i, j)];
+                        }
+                    }
+                }
+            }
+        }
+    }
+    k
+}
+
+/// Lowest eigenvalue of the dense tangent and the largest entry magnitude (N/m).
+pub fn lowest_eigenvalue(model: &Model, u: &[Vector3<f64>]) -> (f64, f64) {
+    let k = tangent(model, u);
+    if k.nrows() == 0 {
+        return (f64::INFINITY, 0.0);
+    }
+    let scale = k.abs().max();
+    let eig = SymmetricEigen::new(k).eigenvalues;
+    (eig.iter().copied().fold(f64::INFINITY, f64::min), scale)
+}
+
+/// Displacements of an equilibrium.
+pub fn displacements(eq: &Equilibrium) -> Vec<Vector3<f64>> {
+    eq.nodes.iter().map(|n| n.displacement).collect()
+}
+
+/// The promise every "stable" answer must keep, checked without the solver's code: relative
+/// residual on the free directions at most `1e-8`, and a dense tangent whose lowest eigenvalue
+/// exceeds `1e-14` of its largest entry (the solver's verdict demands `1e-13`; the gap
+/// allows for the eigensolver's own round-off). Returns a description of what fails.
+pub fn check_stable_answer(model: &Model, case: usize, eq: &Equilibrium) -> Result<(), String> {
+    let u = displacements(eq);
+    let r = residual(model, case, &u);
+    if r.is_nan() || r > 1e-8 {
+        return Err(format!("relative residual {r:.3e} from the member laws"));
+    }
+    let (low, scale) = lowest_eigenvalue(model, &u);
+    if low.is_nan() || low <= 1e-14 * scale {
+        return Err(format!(
+            "lowest tangent eigenvalue {low:.3e} N/m against {scale:.3e} N/m: not positive definite"
+        ));
+    }
+    Ok(())
+}
+
+/// Total potential `Σ U − fᵀu` of case `case` at `u` (J).
+pub fn potential(model: &Model, case: usize, u: &[Vector3<f64>]) -> f64 {
+    let mut e = 0.0;
+    for m in &model.members {
+        let [a, b] = m.ends;
+        let l = vector(model, u, a, b).norm();
+        let stretch = l - m.kind.rest_length();
+        e += match m.kind {
+            MemberKind::Cable { .. } if stretch <= 0.0 => 0.0,
+            _ => 0.5 * m.kind.rate() * stretch * stretch,
+        };
+    }
+    let c = &model.cases[case];
+    for (i, node) in model.nodes.iter().enumerate() {
+        e -= (model.gravity * (node.mass * c.gravity)).dot(&u[i]);
+    }
+    for (node, force) in &c.loads {
+        e -= force.dot(&u[*node]);
+    }
+    e
+}
+
+/// An energy minimiser of the test's own: a trust-region Newton method on the dense tangent
+/// with the exact subproblem solved through its eigendecomposition (Nocedal & Wright,
+/// *Numerical Optimization*, 2nd ed., §4.3, including the "hard case" step along the lowest
+/// eigenvector), from the drawn geometry. Returns displacements of a state with relative
+/// residual ≤ 1e-9 and a positive-definite tangent (lowest eigenvalue above 1e-12 of the
+/// largest entry), or `None`.
+pub fn minimise(model: &Model, case: usize) -> Option<Vec<Vector3<f64>>> {
+    let dofs = free_dofs(model);
+    let n = dofs.len();
+    let extent = model.extent();
+    let mut u = vec![Vector3::zeros(); model.nodes.len()];
+    if n == 0 {
+        return None;
+    }
+    let gradient = |u: &[Vector3<f64>]| -> DVector<f64> {
+        let nn = model.nodes.len();
+        let mut f = vec![Vector3::zeros(); nn];
+        for m in &model.members {
+            let [a, b] = m.ends;
+            let d = vector(model, u, a, b);
+            let l = d.norm();
+            let (force, _) = law(&m.kind, l);
+            f[b] += d * (force / l);
+            f[a] -= d * (force / l);
+        }
+        let c = &model.cases[case];
+        for (i, node) in model.nodes.iter().enumerate() {
+            f[i] -= model.gravity * (node.mass * c.gravity);
+        }
+        for (node, force) in &c.loads {
+            f[*node] -= force;
+        }
+        DVector::from_iterator(n, dofs.iter().map(|&(i, a)| f[i][a]))
+    };
+    let apply = |u: &[Vector3<f64>], p: &DVector<f64>| -> Vec<Vector3<f64>> {
+        let mut t = u.to_vec();
+        for (k, &(i, a)) in dofs.iter().enumerate() {
+            t[i][a] += p[k];
+        }
+        t
+    };
+    let mut radius = 0.1 * extent;
+    for _ in 0..3000 {
+        let g = gradient(&u);
+        let k = tangent(model, &u);
+        let scale = k.abs().max().max(1e-300);
+        if !g.iter().all(|x| x.is_finite()) || u.iter().any(|x| x.norm() > 1e3 * extent) {
+            return None;
+        }
+        if residual(model, case, &u) <= 1e-9 {
+            let low = SymmetricEigen::new(k.clone()).eigenvalues.min();
+            if low > 1e-12 * scale {
+                return Some(u);
+            }
+            // A saddle: leave it along its direction of negative curvature.
+            let eig = SymmetricEigen::new(k);
+            let (imin, _) = eig.eigenvalues.argmin();
+            let v = eig.eigenvectors.column(imin).into_owned();
+            let p1 = apply(&u, &(&v * (0.01 * extent)));
+            let p2 = apply(&u, &(&v * (-0.01 * extent)));
+            let e0 = potential(model, case, &u);
+            let (e1, e2) = (potential(model, case, &p1), potential(model, case, &p2));
+            if e1.min(e2) >= e0 - 1e-12 * e0.abs() {
+                return None;
+            }
+            u = if e1 < e2 { p1 } else { p2 };
+            continue;
+        }
+        // Exact trust-region step through the eigendecomposition K = Q Λ Qᵀ.
+        let eig = SymmetricEigen::new(k.clone());
+        let q = &eig.eigenvectors;
+        let lam = &eig.eigenvalues;
+        let gq = q.transpose() * &g;
+        let step = |mu: f64| -> DVector<f64> {
+            let c = DVector::from_iterator(n, (0..n).map(|i| -gq[i] / (lam[i] + mu)));
+            q * c
+        };
+        let lmin = lam.min();
+        let mut p = if lmin > 1e-12 * scale {
+            step(0.0)
+        } else {
+            DVector::from_element(n, f64::INFINITY)
+        };
+        if p.norm().is_nan() || p.norm() > radius {
+            // Bisection on μ > −λ_min for ‖p(μ)‖ = radius.
+            let mut lo = (-lmin).max(0.0);
+            let mut hi = lo + g.norm() / radius + scale;
+            for _ in 0..200 {
+                let mid = 0.5 * (lo + hi);
+                if step(mid).norm() > radius { lo = mid } else { hi = mid }
+            }
+            p = step(hi);
+            if p.norm() < 0.5 * radius && lmin < 0.0 {
+                // Hard case: add the lowest eigenvector to reach the boundary.
+                let (imin, _) = lam.argmin();
+                let v = q.column(imin).into_owned();
+                let t = (radius * radius - p.norm_squared()).max(0.0).sqrt();
+                p += v * t;
+            }
+        }
+        let predicted = -(g.dot(&p) + 0.5 * (p.transpose() * &k * &p)[(0, 0)]);
+        let trial = apply(&u, &p);
+        let (e0, e1) = (potential(model, case, &u), potential(model, case, &trial));
+        let rho = if predicted > 0.0 { (e0 - e1) / predicted } else { -1.0 };
+        let noise = 1e-12 * (e0.abs() + e1.abs());
+        if rho > 1e-4 || ((e0 - e1).abs() <= noise && gradient(&trial).norm() < g.norm()) {
+            u = trial;
+            if rho > 0.75 && p.norm() > 0.9 * radius {
+                radius *= 2.0;
+            }
+        } else {
+            radius *= 0.25;
+        }
+        if rho < 0.25 {
+            radius = radius.min(0.5 * p.norm());
+        }
+        if radius < 1e-14 * extent {
+            return None;
+        }
+    }
+    None
+}
