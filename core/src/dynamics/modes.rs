@@ -18,7 +18,7 @@ use serde::Serialize;
 
 use crate::model::Vec3;
 use crate::solve::factor::Factor;
-use crate::solve::stability::{Definiteness, verdict};
+use crate::solve::stability::{Definiteness, verdict_at};
 use crate::solve::system::Part;
 use crate::solve::{Equilibrium, Statics};
 use crate::watch::Watch;
@@ -96,7 +96,7 @@ pub fn modes_watched(statics: &Statics, eq: &Equilibrium, count: usize, watch: &
         return Err(ModeError::Stopped);
     }
     // The one stability verdict: a neutral state has a zero frequency, never a number.
-    if verdict(sys, &k).0 != Definiteness::Positive {
+    if verdict_at(sys, model, &disp).0 != Definiteness::Positive {
         return Err(ModeError::NotStable(statics.stability_at(&disp).describe()));
     }
     let factor = sys

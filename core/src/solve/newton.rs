@@ -18,7 +18,7 @@
 //! the rig's size and cannot stall at a zero pivot: it reaches an equilibrium from far away
 //! (a chain drawn straight, a rig that is a mechanism until it is loaded).
 
-use super::stability::{Definiteness, NEUTRAL_TOLERANCE, lowest_mode, verdict};
+use super::stability::{Definiteness, NEUTRAL_TOLERANCE, lowest_mode, verdict_at};
 use super::statics::Statics;
 use super::system::{Evaluation, Part};
 use crate::model::Vec3;
@@ -108,11 +108,17 @@ impl Statics<'_> {
             let rel = rnorm / eval.scale;
             let values = sys.assemble(model, u, Part::Total);
             if rel <= s.tolerance || sys.size() == 0 {
-                let (definiteness, factor) = verdict(sys, &values);
+                let (definiteness, factor) = verdict_at(sys, model, u);
                 if let Mode::Global { escape: true } = mode
                     && definiteness != Definiteness::Positive
                     && escapes < 3
-                    && let Some(e) = self.escape(u, load, lambda, &values, &eval)
+                    && let Some(e) = self.escape(
+                        u,
+                        load,
+                        lambda,
+                        &sys.assemble_for_verdict(model, u, super::system::System::slack_floor(model, u)),
+                        &eval,
+                    )
                 {
                     escapes += 1;
                     eval = e;
@@ -199,7 +205,7 @@ impl Statics<'_> {
                     if radius <= 1e-15 * extent {
                         // No step reduces the residual: converged to round-off, or stuck.
                         if rel <= 1e-8 {
-                            let (definiteness, factor) = verdict(sys, &values);
+                            let (definiteness, factor) = verdict_at(sys, model, u);
                             return Ok(Converged {
                                 residual: rel,
                                 definiteness,

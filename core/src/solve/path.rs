@@ -24,7 +24,7 @@
 
 use super::factor::Factor;
 use super::newton::{Converged, Mode, NewtonFail};
-use super::stability::{Definiteness, nearest_zero_mode, verdict};
+use super::stability::{Definiteness, nearest_zero_mode, verdict, verdict_at};
 use super::statics::Statics;
 use super::system::Part;
 use crate::model::Vec3;
@@ -169,8 +169,8 @@ impl<'s, 'm> Walker<'s, 'm> {
 
     /// The path point at equilibrium `u`, `lambda`.
     pub fn point(&self, u: Vec<Vec3>, lambda: f64, previous: Option<&(Vec<f64>, f64)>, iterations: usize) -> Option<Point> {
-        let (values, factor) = self.factor_at(&u)?;
-        let (definiteness, _) = verdict(&self.statics.system, &values);
+        let (_, factor) = self.factor_at(&u)?;
+        let (definiteness, _) = verdict_at(&self.statics.system, self.statics.model, &u);
         let tangent = self.tangent(&factor, previous);
         Some(Point {
             u,

@@ -21,7 +21,8 @@
 //! match Lagrange's formula to 10⁻⁷ — still is. A rig whose stiffness contrast exceeds what
 //! double precision resolves is reported neutral rather than given a wrong number. Solve, the
 //! condensed stiffness, the modes, Pluck, the checks, the Sheet
-//! and the app all use this verdict.
+//! and the app all use this verdict. A cable whose tension is zero to the solver's resolution
+//! counts as slack in it: it resists being stretched, not being slackened.
 
 use super::factor::Factor;
 use super::system::System;
@@ -60,6 +61,13 @@ pub fn verdict(sys: &System, values: &[f64]) -> (Definiteness, Option<Factor>) {
     } else {
         (Definiteness::Indefinite, None)
     }
+}
+
+/// The verdict on the equilibrium at displacements `disp` of `model`: [`verdict`] on the
+/// tangent with cables at zero tension counted slack ([`System::assemble_for_verdict`]).
+pub fn verdict_at(sys: &System, model: &crate::model::Model, disp: &[crate::model::Vec3]) -> (Definiteness, Option<Factor>) {
+    let floor = System::slack_floor(model, disp);
+    verdict(sys, &sys.assemble_for_verdict(model, disp, floor))
 }
 
 fn norm(v: &[f64]) -> f64 {

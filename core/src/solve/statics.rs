@@ -28,7 +28,7 @@ use super::newton::{Converged, Mode, NewtonFail};
 use super::path::{Critical, CriticalKind, PathEnd, Walker};
 use super::relax::Relaxed;
 use super::result::{Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, Principal, Route, Stability, sig6};
-use super::stability::{Definiteness, lowest_mode, verdict};
+use super::stability::{Definiteness, lowest_mode, verdict_at};
 use super::system::{DofMap, Part, System, member_vector};
 use crate::model::{Model, Vec3};
 
@@ -614,8 +614,7 @@ impl<'m> Statics<'m> {
 
     /// The stability verdict at displacements `u` (the one used for every equilibrium).
     pub fn stability_at(&self, u: &[Vec3]) -> Stability {
-        let values = self.system.assemble(self.model, u, Part::Total);
-        match verdict(&self.system, &values).0 {
+        match verdict_at(&self.system, self.model, u).0 {
             Definiteness::Positive => Stability::Stable,
             other => self.diagnose(u, other),
         }
@@ -624,7 +623,7 @@ impl<'m> Statics<'m> {
     /// Names the node and direction of the lowest tangent-stiffness mode.
     fn diagnose(&self, u: &[Vec3], d: Definiteness) -> Stability {
         let sys = &self.system;
-        let values = sys.assemble(self.model, u, Part::Total);
+        let values = sys.assemble_for_verdict(self.model, u, System::slack_floor(self.model, u));
         let (eig, vec) = lowest_mode(sys, &values);
         let (node, direction) = self.dominant_node(&vec);
         if d == Definiteness::Indefinite && eig < 0.0 {
@@ -639,7 +638,9 @@ impl<'m> Statics<'m> {
     }
 
     fn dominant_node(&self, v: &[f64]) -> (String, [f64; 3]) {
-        let mut best = (0, Vec3::zeros());
+        // Only nodes with a free direction can be named (the first of them when `v` is zero).
+        let first_free = self.system.dofs.dof.iter().position(|d| d.iter().any(Option::is_some)).unwrap_or(0);
+        let mut best = (first_free, Vec3::zeros());
         for (n, d) in self.system.dofs.dof.iter().enumerate() {
             let mut w = Vec3::zeros();
             for a in 0..3 {
@@ -682,7 +683,7 @@ impl<'m> Statics<'m> {
         }
         let u = eq.displacements();
         let kt = sys.assemble(model, &u, Part::Total);
-        if verdict(sys, &kt).0 != Definiteness::Positive {
+        if verdict_at(sys, model, &u).0 != Definiteness::Positive {
             return Err(SolveError::NotStable(self.stability_at(&u).describe()));
         }
         let factor = sys

@@ -257,6 +257,51 @@ impl System {
         values
     }
 
+    /// The tangent the stability verdict judges: as [`System::assemble`] with [`Part::Total`],
+    /// but a cable whose tension is at most `floor` (N) counts as slack. A cable at zero
+    /// tension resists being stretched but not being slackened, so it cannot make a state
+    /// stable in the direction that slackens it; its one-sided stiffness is left out.
+    pub fn assemble_for_verdict(&self, model: &Model, disp: &[Vec3], floor: f64) -> Vec<f64> {
+        let mut values = vec![0.0; self.nonzeros()];
+        for (m, scatter) in model.members.iter().zip(&self.scatter) {
+            if scatter.is_empty() {
+                continue;
+            }
+            let d = member_vector(model, m, disp);
+            let l = d.norm();
+            if l.partial_cmp(&0.0) != Some(std::cmp::Ordering::Greater) {
+                continue;
+            }
+            if matches!(m.kind, crate::element::MemberKind::Cable { .. }) && m.kind.state(l).force <= floor {
+                continue;
+            }
+            let (ke, kg) = m.kind.tangent_blocks(&(d / l), l);
+            let k = ke + kg;
+            for &(li, lj, s) in scatter {
+                let (li, lj) = (li as usize, lj as usize);
+                let sign = if (li < 3) == (lj < 3) { 1.0 } else { -1.0 };
+                values[s] += sign * k[(li % 3, lj % 3)];
+            }
+        }
+        values
+    }
+
+    /// Tension below which a cable counts as slack for the verdict (N): a billionth of the
+    /// larger of the largest member force and the largest nodal load of any case — the
+    /// resolution of forces at the solver's tolerance.
+    pub fn slack_floor(model: &Model, disp: &[Vec3]) -> f64 {
+        let members = model
+            .members
+            .iter()
+            .map(|m| m.kind.state(member_vector(model, m, disp).norm()).force.abs())
+            .fold(0.0, f64::max);
+        let loads = (0..model.cases.len())
+            .flat_map(|c| model.case_forces(c))
+            .map(|f| f.norm())
+            .fold(0.0, f64::max);
+        1e-9 * members.max(loads)
+    }
+
     /// Largest diagonal entry magnitude (N/m), at least 1e-300.
     pub fn max_diagonal(&self, values: &[f64]) -> f64 {
         self.diag.iter().map(|&s| values[s].abs()).fold(1e-300, f64::max)
