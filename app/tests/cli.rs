@@ -302,3 +302,75 @@ fn spring_proposes_a_design_with_units() {
     assert_eq!(code, 2);
     assert!(err.contains("music-wire"), "{err}");
 }
+
+/// A reader that closes the pipe early (`| head -1`) ends every command quietly: exit 0, no
+/// panic message (issue 14).
+#[test]
+fn a_closed_pipe_ends_the_command_quietly() {
+    use std::io::{BufRead, BufReader};
+    use std::process::Stdio;
+    // A 40×40 net: its outputs are far larger than a pipe's buffer, so the writer meets the
+    // closed pipe.
+    let file = std::env::temp_dir().join(format!("rigwright-cli-pipe-{}.rig.ron", std::process::id()));
+    std::fs::write(&file, rigwright_core::gallery::cable_net(40, 1.0, 1e6, 1000.0, 1.0).to_ron()).unwrap();
+    for args in [
+        vec!["modes", file.to_str().unwrap(), "--json", "--count", "20"],
+        vec!["solve", file.to_str().unwrap()],
+    ] {
+        let mut child = Command::new(env!("CARGO_BIN_EXE_rigwright"))
+            .args(&args)
+            .stdout(Stdio::piped())
+            .stderr(Stdio::piped())
+            .spawn()
+            .unwrap();
+        let mut line = String::new();
+        BufReader::new(child.stdout.take().unwrap()).read_line(&mut line).unwrap();
+        // The reader is gone now; the program must notice and stop.
+        let out = child.wait_with_output().unwrap();
+        let err = String::from_utf8_lossy(&out.stderr);
+        assert_eq!(out.status.code(), Some(0), "{args:?}: {err}");
+        assert!(!err.contains("panicked"), "{args:?}: {err}");
+    }
+    std::fs::remove_file(file).ok();
+}
+
+/// The shallow truss loaded past its limit (closed form 38.10872 N, see the verification
+/// suite's no_wrong_answer.rs): `solve` stops at the limit point, naming its load factor to six
+/// digits in text and JSON; `--follow` gives the snapped-through state and says so; `path`
+/// writes the curve through the limit.
+#[test]
+fn limit_points_are_reported_with_their_load_factor_and_followed_on_request() {
+    let dir = std::env::temp_dir().join(format!("rigwright-cli-limit-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let file = dir.join("truss.rig.ron");
+    std::fs::write(
+        &file,
+        r#"(version: 2, planar: true, gravity: (0.0, 0.0, 0.0), nodes: [(id: "L", at: (-1.0, 0.0, 0.0), fixed: (true, true, true)), (id: "R", at: (1.0, 0.0, 0.0), fixed: (true, true, true)), (id: "C", at: (0.0, 0.1, 0.0), mass: 1.0)], members: [(id: "b1", ends: ("L", "C"), kind: Strut(ea: 100000.0, rest: AsDrawn)), (id: "b2", ends: ("R", "C"), kind: Strut(ea: 100000.0, rest: AsDrawn))], cases: [(name: "2x", loads: [(node: "C", force: (0.0, -76.2, 0.0))])])"#,
+    )
+    .unwrap();
+    let f = file.to_str().unwrap();
+    let (code, out, err) = rigwright(&["solve", f, "--json"]);
+    assert_eq!(code, 3, "{err}");
+    let doc: serde_json::Value = serde_json::from_str(&out).unwrap();
+    assert_eq!(doc["kind"], "limit_point");
+    let factor = doc["critical_load_factor"].as_f64().unwrap();
+    assert!((factor * 76.2 - 38.10872).abs() < 1e-4, "{factor}");
+    assert!(err.contains("load factor 0.500114"), "{err}");
+    let (code, out, err) = rigwright(&["solve", f, "--follow"]);
+    assert_eq!(code, 0, "{err}");
+    assert!(
+        out.contains("stable equilibrium") && out.contains("followed past a limit point at load factor 0.500114"),
+        "{out}"
+    );
+    let (code, out, err) = rigwright(&["path", f, "--node", "C", "--csv"]);
+    assert_eq!(code, 0, "{err}");
+    let rows: Vec<&str> = out.lines().collect();
+    assert_eq!(rows[0], "load_factor,ux_m,uy_m,uz_m,stable");
+    assert!(rows.iter().any(|r| r.ends_with("false")), "the path passes an unstable stretch");
+    assert!(
+        rows.last().unwrap().starts_with("1,") && rows.last().unwrap().ends_with("true"),
+        "{}",
+        rows.last().unwrap()
+    );
+    std::fs::remove_dir_all(&dir).ok();
+}

@@ -367,3 +367,51 @@ fn overflowing_inputs_are_refused_naming_the_item() {
     let empty = model(&parse("(version: 2, nodes: [], members: [])"));
     assert!(matches!(Statics::new(&empty).solve(0, None), Err(SolveError::NothingToSolve)));
 }
+
+/// The traced equilibrium path of the shallow truss under three times its limit load: every
+/// point lies on the closed-form curve `P(v)` (above), the path passes the limit point at
+/// `P_lim / P` (to 1e-6) and the mirror point where the load factor is least, and reaches the
+/// full load on the snapped-through branch, stable again.
+#[test]
+fn the_traced_path_of_the_truss_follows_its_closed_form_through_the_limit_point() {
+    let p_lim = truss_limit();
+    let load = 3.0 * 38.1;
+    let m = model(&parse(&truss_text(&[load])));
+    let statics = Statics::new(&m);
+    let path = statics.trace(0, 2, 1.0, 400).unwrap();
+    assert!(path.reached, "{} points", path.points.len());
+    for pt in &path.points {
+        let v = -pt.displacement.y;
+        let p = pt.load_factor * load;
+        assert!(
+            (truss_curve(v) - p).abs() < 1e-7 * load,
+            "v = {v}: λP = {p}, P(v) = {}",
+            truss_curve(v)
+        );
+        assert!(pt.displacement.x.abs() < 1e-9);
+    }
+    let first = &path.critical[0];
+    assert_eq!(first.kind, "limit point");
+    assert!(
+        rel(first.load_factor * load, p_lim) < 1e-6,
+        "{} vs {p_lim}",
+        first.load_factor * load
+    );
+    let least = path.points.iter().map(|p| p.load_factor).fold(f64::INFINITY, f64::min);
+    assert!(rel(least * load, -p_lim) < 1e-2, "least load factor {least}");
+    let last = path.points.last().unwrap();
+    assert!(
+        last.stable && (last.load_factor - 1.0).abs() < 1e-12 && -last.displacement.y > 0.2,
+        "{last:?}"
+    );
+    // Stable before the limit, unstable between the limit points, stable again after.
+    let v_lim = 0.042360743;
+    for pt in &path.points {
+        let v = -pt.displacement.y;
+        if v < v_lim - 1e-3 || v > 2.0 * 0.1 - v_lim + 1e-3 {
+            assert!(pt.stable, "v = {v}");
+        } else if (v_lim + 1e-3..2.0 * 0.1 - v_lim - 1e-3).contains(&v) {
+            assert!(!pt.stable, "v = {v}");
+        }
+    }
+}

@@ -50,6 +50,35 @@ pub enum Command {
         /// Also print the condensed tangent stiffness at this node.
         #[arg(long)]
         stiffness: Option<String>,
+        /// When the load path meets a limit point or bifurcation (or the drawn state is
+        /// unstable), follow the rig to the stable state it moves to instead of stopping there;
+        /// the output says so.
+        #[arg(long)]
+        follow: bool,
+    },
+    /// Trace the load path: load factor against one node's displacement, through limit
+    /// points and unstable stretches, by arc length from the unloaded state.
+    Path {
+        /// Project file (*.rig.ron).
+        file: PathBuf,
+        /// Node whose displacement to record.
+        #[arg(long)]
+        node: String,
+        /// Load case name (default: the first case).
+        #[arg(long)]
+        case: Option<String>,
+        /// Load factor to trace up to (1 = the full load case).
+        #[arg(long, default_value_t = 1.0)]
+        to: f64,
+        /// Most path points to record (2 to 100,000).
+        #[arg(long, default_value_t = 400)]
+        points: usize,
+        /// Print CSV.
+        #[arg(long, conflicts_with = "json")]
+        csv: bool,
+        /// Print one JSON document (SI units).
+        #[arg(long)]
+        json: bool,
     },
     /// Natural frequencies and mode shapes about the equilibrium of a load case.
     Modes {
@@ -351,9 +380,24 @@ fn load_case(path: &Path, case: Option<&str>) -> Result<(Model, usize), Failure>
 /// Prints a command's output; a JSON document ends with a newline.
 fn print_output(text: &str, json: bool) {
     if json {
-        println!("{text}");
+        emit(&format!("{text}\n"));
     } else {
-        print!("{text}");
+        emit(text);
+    }
+}
+
+/// Writes `text` to standard output. A reader that closed the pipe early (`| head`) ends the
+/// program quietly and successfully; any other write error ends it with a message.
+pub(crate) fn emit(text: &str) {
+    use std::io::Write;
+    let mut out = std::io::stdout().lock();
+    match out.write_all(text.as_bytes()).and_then(|()| out.flush()) {
+        Ok(()) => {}
+        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => std::process::exit(0),
+        Err(e) => {
+            eprintln!("rigwright: could not write the output: {e}");
+            std::process::exit(1)
+        }
     }
 }
 
@@ -435,7 +479,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
             Ok(())
         }
         Command::Parts { file, catalogue, filter } => {
-            print!("{}", sizing::parts_command(file.as_deref(), &catalogue, filter.as_deref())?);
+            emit(&sizing::parts_command(file.as_deref(), &catalogue, filter.as_deref())?);
             Ok(())
         }
         Command::Sheet {
@@ -516,14 +560,52 @@ pub fn run(command: Command) -> Result<(), Failure> {
             print_output(&dynamics::pluck_command(&model, &args)?, json);
             Ok(())
         }
+        Command::Path {
+            file,
+            node,
+            case,
+            to,
+            points,
+            csv,
+            json,
+        } => {
+            let (model, case) = load_case(&file, case.as_deref())?;
+            let n = model
+                .node_index(&node)
+                .ok_or_else(|| Failure::input(format!("node `{node}` does not exist; check the id")))?;
+            if !(2..=100_000).contains(&points) {
+                return Err(Failure::input(format!("--points {points}: give 2 to 100000 points")));
+            }
+            if !(to.is_finite() && to > 0.0 && to <= 1e6) {
+                return Err(Failure::input(format!("--to {to}: give a load factor above 0 and at most 1e6")));
+            }
+            let trace = Statics::new(&model).trace(case, n, to, points).map_err(|e| Failure {
+                code: EXIT_NO_EQUILIBRIUM,
+                message: e.to_string(),
+            })?;
+            print_output(&report::path_output(&trace, csv, json), json);
+            if trace.reached {
+                Ok(())
+            } else {
+                Err(Failure {
+                    code: EXIT_NO_EQUILIBRIUM,
+                    message: format!(
+                        "the path stopped at load factor {} before reaching {to}",
+                        rigwright_core::solve::sig6(trace.points.last().map_or(0.0, |p| p.load_factor))
+                    ),
+                })
+            }
+        }
         Command::Solve {
             file,
             case,
             json,
             stiffness,
+            follow,
         } => {
             let (model, case) = load_case(&file, case.as_deref())?;
-            let statics = Statics::new(&model);
+            let mut statics = Statics::new(&model);
+            statics.settings.follow = follow;
             let node = match &stiffness {
                 Some(id) => Some(
                     model
@@ -537,7 +619,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
                 Ok(eq) => eq,
                 Err(e) => {
                     if json {
-                        println!("{}", report::failure_json(&model, case, &e));
+                        emit(&format!("{}\n", report::failure_json(&model, case, &e)));
                     }
                     return Err(Failure {
                         code: EXIT_NO_EQUILIBRIUM,
@@ -550,9 +632,9 @@ pub fn run(command: Command) -> Result<(), Failure> {
                 _ => None,
             };
             if json {
-                println!("{}", report::solve_json(&eq, k.as_ref()));
+                emit(&format!("{}\n", report::solve_json(&eq, k.as_ref())));
             } else {
-                print!("{}", report::solve_table(&model, &eq, k.as_ref()));
+                emit(&report::solve_table(&model, &eq, k.as_ref()));
             }
             if !eq.stability.is_stable() {
                 return Err(Failure {

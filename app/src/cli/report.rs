@@ -2,6 +2,7 @@
 
 use std::fmt::Write;
 
+use rigwright_core::solve::{LoadPathTrace, sig6};
 use rigwright_core::{Equilibrium, Model, NodeStiffness, SolveError};
 use serde_json::{Value, json};
 
@@ -9,8 +10,23 @@ fn v3(v: &rigwright_core::Vec3) -> Value {
     json!([v.x, v.y, v.z])
 }
 
-/// `rigwright.solve/1` document.
+/// `rigwright.solve/1` document. A state that is not stable is not an answer: the document
+/// then gives the diagnostic and leaves the node and member values out.
 pub fn solve_json(eq: &Equilibrium, k: Option<&NodeStiffness>) -> String {
+    if !eq.stability.is_stable() {
+        let doc = json!({
+            "format": "rigwright.solve/1",
+            "case": eq.case,
+            "converged": true,
+            "stable": false,
+            "stability": eq.stability,
+            "route": eq.route,
+            "diagnostic": eq.stability.describe(),
+            "iterations": eq.iterations,
+            "residual": eq.residual,
+        });
+        return serde_json::to_string_pretty(&doc).expect("json");
+    }
     let nodes: Vec<Value> = eq
         .nodes
         .iter()
@@ -31,6 +47,7 @@ pub fn solve_json(eq: &Equilibrium, k: Option<&NodeStiffness>) -> String {
         "converged": true,
         "stable": eq.stability.is_stable(),
         "stability": eq.stability,
+        "route": eq.route,
         "iterations": eq.iterations,
         "load_steps": eq.load_steps,
         "residual": eq.residual,
@@ -50,6 +67,8 @@ pub fn failure_json(model: &Model, case: usize, e: &SolveError) -> String {
         "case": model.cases[case].name,
         "converged": false,
         "stable": false,
+        "kind": e.kind(),
+        "critical_load_factor": e.critical_load_factor(),
         "diagnostic": e.to_string(),
     });
     serde_json::to_string_pretty(&doc).expect("json")
@@ -60,14 +79,26 @@ pub fn solve_table(model: &Model, eq: &Equilibrium, k: Option<&NodeStiffness>) -
     let mut s = String::new();
     let title = if model.title.is_empty() { "(untitled rig)" } else { &model.title };
     let _ = writeln!(s, "{title} — load case `{}`", eq.case);
+    let steps = if eq.load_steps == 1 {
+        "1 load step".to_string()
+    } else {
+        format!("{} load steps", eq.load_steps)
+    };
     let _ = writeln!(
         s,
-        "{}; {} Newton iterations in {} load step(s), relative residual {:.2e}\n",
+        "{}; {} Newton iterations in {steps}, relative residual {:.2e}",
         eq.stability.describe(),
         eq.iterations,
-        eq.load_steps,
         eq.residual
     );
+    if let Some(route) = eq.route.describe() {
+        let _ = writeln!(s, "note: {route}");
+    }
+    let _ = writeln!(s);
+    if !eq.stability.is_stable() {
+        let _ = writeln!(s, "no table: a state that is not stable is not an answer.");
+        return s;
+    }
     let _ = writeln!(
         s,
         "{:<14} {:<7} {:>14} {:>12} {:>12} {:>10}  state",
@@ -121,6 +152,65 @@ pub fn solve_table(model: &Model, eq: &Equilibrium, k: Option<&NodeStiffness>) -
                 p.value, p.direction.x, p.direction.y, p.direction.z
             );
         }
+    }
+    s
+}
+
+/// The traced path as a table, CSV or a `rigwright.path/1` JSON document (SI units).
+pub fn path_output(trace: &LoadPathTrace, csv: bool, json: bool) -> String {
+    if json {
+        let doc = json!({
+            "format": "rigwright.path/1",
+            "units": {"displacement": "m"},
+            "case": trace.case,
+            "node": trace.node,
+            "reached": trace.reached,
+            "critical": trace.critical,
+            "points": trace.points.iter().map(|p| json!({"load_factor": p.load_factor, "displacement": v3(&p.displacement), "stable": p.stable})).collect::<Vec<_>>(),
+        });
+        return serde_json::to_string_pretty(&doc).expect("json");
+    }
+    let mut s = String::new();
+    if csv {
+        let _ = writeln!(s, "load_factor,ux_m,uy_m,uz_m,stable");
+        for p in &trace.points {
+            let d = p.displacement;
+            let _ = writeln!(s, "{},{},{},{},{}", p.load_factor, d.x, d.y, d.z, p.stable);
+        }
+        return s;
+    }
+    let _ = writeln!(
+        s,
+        "load path of case `{}`, node `{}` ({} points)",
+        trace.case,
+        trace.node,
+        trace.points.len()
+    );
+    for c in &trace.critical {
+        let d = c.displacement * 1000.0;
+        let _ = writeln!(
+            s,
+            "{} at load factor {} (node displacement ({:.3}, {:.3}, {:.3}) mm)",
+            c.kind,
+            sig6(c.load_factor),
+            d.x,
+            d.y,
+            d.z
+        );
+    }
+    let _ = writeln!(s, "{:>14} {:>36}  state", "load factor", "displacement [mm] (x, y, z)");
+    for p in &trace.points {
+        let d = p.displacement * 1000.0;
+        let _ = writeln!(
+            s,
+            "{:>14.6} {:>36}  {}",
+            p.load_factor,
+            format!("({:.3}, {:.3}, {:.3})", d.x, d.y, d.z),
+            if p.stable { "stable" } else { "UNSTABLE" }
+        );
+    }
+    if !trace.reached {
+        let _ = writeln!(s, "the path stopped before the load factor asked for");
     }
     s
 }

@@ -141,7 +141,7 @@ pub fn export(file: &Path, choice: Choice, out: Outputs) -> Result<(), Failure> 
     if let Some(path) = &out.json {
         let text = export::result_json(&sheet);
         if path.as_os_str() == "-" {
-            println!("{text}");
+            super::emit(&format!("{text}\n"));
         } else {
             write(path, format!("{text}\n").as_bytes())?;
         }

@@ -13,6 +13,6 @@ pub mod stability;
 mod statics;
 pub mod system;
 
-pub use path::CriticalKind;
+pub use path::{CriticalKind, LoadPathTrace, PathCritical, PathPoint};
 pub use result::{Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, Principal, Route, Stability, sig6};
 pub use statics::{SolveError, SolveSettings, Statics};

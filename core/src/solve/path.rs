@@ -25,8 +25,10 @@
 use super::factor::Factor;
 use super::newton::{Converged, Mode, NewtonFail};
 use super::stability::{Definiteness, nearest_zero_mode, verdict, verdict_at};
-use super::statics::Statics;
+use super::statics::{SolveError, Statics};
 use super::system::Part;
+use serde::Serialize;
+
 use crate::model::Vec3;
 
 /// Allowed excess of the secant over the tangent compliance in one load step.
@@ -118,6 +120,8 @@ pub(super) struct Walker<'s, 'm> {
     /// Displacement scale of the arc-length norm (m).
     pub u_ref: f64,
     pub iterations: usize,
+    /// Largest change of the load factor in one step (default 0.1).
+    pub max_dlambda: f64,
 }
 
 impl<'s, 'm> Walker<'s, 'm> {
@@ -129,6 +133,7 @@ impl<'s, 'm> Walker<'s, 'm> {
             f,
             u_ref: u_ref.max(1e-9 * statics.model.extent()),
             iterations: 0,
+            max_dlambda: 0.1,
         }
     }
 
@@ -181,13 +186,13 @@ impl<'s, 'm> Walker<'s, 'm> {
         })
     }
 
-    /// `ds` limited so that one step changes the load factor by at most 0.1 and moves no
+    /// `ds` limited so that one step changes the load factor by at most `max_dlambda` and moves no
     /// node by more than 2 % of the rig's size (steps that could jump between branches).
     pub fn cap(&self, ds: f64, at: &Point) -> f64 {
         let extent = self.statics.model.extent();
         let mut ds = ds;
         if at.tangent.1.abs() > 0.0 {
-            ds = ds.min(0.1 / at.tangent.1.abs());
+            ds = ds.min(self.max_dlambda / at.tangent.1.abs());
         }
         let du = at.tangent.0.iter().fold(0.0f64, |m, x| m.max(x.abs()));
         if du > 0.0 {
@@ -467,5 +472,145 @@ impl Statics<'_> {
         };
         *total += walker.iterations;
         out
+    }
+}
+
+/// One point of a traced load path.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct PathPoint {
+    /// Load factor λ (1 = the full load case).
+    pub load_factor: f64,
+    /// Displacement of the traced node from the drawn geometry (m).
+    pub displacement: Vec3,
+    /// The state is stable by the one verdict.
+    pub stable: bool,
+}
+
+/// A critical point met on a traced path.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct PathCritical {
+    /// "limit point" or "bifurcation".
+    pub kind: String,
+    pub load_factor: f64,
+    /// Displacement of the traced node there (m).
+    pub displacement: Vec3,
+}
+
+/// The equilibrium path of a load case: load factor against one node's displacement.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct LoadPathTrace {
+    pub case: String,
+    pub node: String,
+    pub points: Vec<PathPoint>,
+    /// Where stability was lost along the path, in order.
+    pub critical: Vec<PathCritical>,
+    /// The path reached the load factor asked for.
+    pub reached: bool,
+}
+
+impl Statics<'_> {
+    /// Traces the equilibrium path of load case `case` by arc length from the unloaded state
+    /// to load factor `to`, through limit points and unstable stretches, recording node
+    /// `node`'s displacement at up to `max_points` points. Refused when the unloaded rig is
+    /// not stable (a path needs a stable start) or `node` is out of range.
+    pub fn trace(&self, case: usize, node: usize, to: f64, max_points: usize) -> Result<LoadPathTrace, SolveError> {
+        let model = self.model;
+        if case >= model.cases.len() {
+            return Err(SolveError::UnknownCase(format!("#{case}"), String::new()));
+        }
+        let Some(node_id) = model.nodes.get(node).map(|n| n.id.clone()) else {
+            return Err(SolveError::BadNode(format!("#{node}"), "no such node".into()));
+        };
+        if !(to.is_finite() && to > 0.0) {
+            return Err(SolveError::BadNode(
+                node_id,
+                format!("a path needs a positive, finite load factor to reach, not {to}"),
+            ));
+        }
+        if model.members.is_empty() {
+            return Err(SolveError::NothingToSolve);
+        }
+        let load = model.case_forces(case);
+        let mut iterations = 0;
+        let mut u = vec![Vec3::zeros(); model.nodes.len()];
+        let start = match self.newton(&mut u, &load, 0.0, Mode::Local { strict: false }, 60, &mut iterations) {
+            Ok(c) if c.definiteness == Definiteness::Positive => c,
+            Ok(_) | Err(NewtonFail::Stalled { .. }) | Err(NewtonFail::Indefinite) => {
+                return Err(SolveError::NotStable(
+                    "the unloaded rig is not stable (a mechanism until it is loaded), so there is no load path to trace from it; solve the load case instead".into(),
+                ));
+            }
+            Err(NewtonFail::Runaway { node, direction }) => return Err(self.mechanism(node, direction)),
+            Err(NewtonFail::Cancelled) => return Err(SolveError::Cancelled { iterations }),
+        };
+        let f = self.system.gather(&load);
+        let u_ref = match start.factor.as_ref() {
+            Some(fac) => norm(&self.compliance(fac, &f).0),
+            None => 1.0,
+        };
+        let mut walker = Walker::new(self, &load, u_ref);
+        walker.max_dlambda = to / 40.0;
+        let Some(mut here) = walker.point(u, 0.0, None, 0) else {
+            return Err(SolveError::NotStable("no tangent at the unloaded state".into()));
+        };
+        let record = |p: &Point| PathPoint {
+            load_factor: p.lambda,
+            displacement: p.u[node],
+            stable: p.definiteness == Definiteness::Positive,
+        };
+        let mut trace = LoadPathTrace {
+            case: model.cases[case].name.clone(),
+            node: node_id,
+            points: vec![record(&here)],
+            critical: Vec::new(),
+            reached: false,
+        };
+        let mut ds = walker.cap(1.0, &here);
+        let max_points = max_points.max(2);
+        while trace.points.len() < max_points {
+            if self.cancelled() {
+                return Err(SolveError::Cancelled {
+                    iterations: walker.iterations,
+                });
+            }
+            if walker.iterations + iterations >= self.settings.max_iterations || ds < 1e-12 {
+                break;
+            }
+            let Some(next) = walker.advance(&here, ds) else {
+                ds *= 0.5;
+                continue;
+            };
+            if here.definiteness == Definiteness::Positive && next.definiteness != Definiteness::Positive {
+                let c = walker.locate(&here, ds, next.clone());
+                trace.critical.push(PathCritical {
+                    kind: c.kind.name().into(),
+                    load_factor: c.load_factor,
+                    displacement: c.beyond.u[node],
+                });
+            }
+            if next.lambda >= to && here.lambda < to {
+                // The last point exactly at the load factor asked for.
+                let frac = (to - here.lambda) / (next.lambda - here.lambda);
+                let mut u1 = here.u.clone();
+                for (a, b) in u1.iter_mut().zip(&next.u) {
+                    *a += (b - *a) * frac;
+                }
+                let mut its = 0;
+                if self.newton(&mut u1, &load, to, Mode::Local { strict: false }, 30, &mut its).is_ok()
+                    && let Some(p) = walker.point(u1, to, Some(&here.tangent), 0)
+                {
+                    trace.points.push(record(&p));
+                } else {
+                    trace.points.push(record(&next));
+                }
+                trace.reached = true;
+                break;
+            }
+            trace.points.push(record(&next));
+            let grow = (ARC_TARGET_ITERATIONS / next.iterations.max(1) as f64).sqrt().clamp(0.5, 2.0);
+            ds = walker.cap(ds * grow, &next);
+            here = next;
+        }
+        Ok(trace)
     }
 }

@@ -531,7 +531,7 @@ impl<'m> Statics<'m> {
         None
     }
 
-    fn mechanism(&self, node: usize, direction: Vec3) -> SolveError {
+    pub(super) fn mechanism(&self, node: usize, direction: Vec3) -> SolveError {
         let d = direction.normalize();
         SolveError::Mechanism {
             node: self.model.nodes[node].id.clone(),
