@@ -127,7 +127,7 @@ fn truss_limit() -> f64 {
 fn past_a_limit_point_every_load_size_reports_the_limit_to_six_digits() {
     let p_lim = truss_limit();
     assert!((p_lim - 38.10872).abs() < 1e-5, "closed form {p_lim}");
-    let loads = [1.5, 2.0, 3.0, 10.0, 100.0].map(|f| f * 38.1);
+    let loads = [1.02, 1.5, 2.0, 3.0, 5.0, 7.0, 10.0, 20.0, 30.0, 50.0, 100.0, 300.0, 1000.0].map(|f| f * 38.1);
     let m = model(&parse(&truss_text(&loads)));
     let statics = Statics::new(&m);
     for (c, p) in loads.iter().enumerate() {

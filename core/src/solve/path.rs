@@ -301,6 +301,36 @@ impl Statics<'_> {
         (t, c)
     }
 
+    /// True when the potential is strictly convex along the straight segment from
+    /// displacements `a` to `b` at `samples` + 1 evenly spaced points: the curvature
+    /// `dᵀ K_T d` in the segment's direction `d`, summed member by member without assembling,
+    /// is positive (above round-off of its terms) at each. Convex along the line, the
+    /// line-constrained minimum moves continuously from one end to the other as the load
+    /// grows: the step cannot have snapped along its own direction.
+    fn convex_along(&self, a: &[Vec3], b: &[Vec3], samples: usize) -> bool {
+        let model = self.model;
+        let d: Vec<Vec3> = a.iter().zip(b).map(|(x, y)| y - x).collect();
+        (0..=samples).all(|k| {
+            let s = k as f64 / samples as f64;
+            let at: Vec<Vec3> = a.iter().zip(&d).map(|(x, dx)| x + dx * s).collect();
+            let (mut curvature, mut size) = (0.0, 0.0);
+            for m in &model.members {
+                let [i, j] = m.ends;
+                let v = super::system::member_vector(model, m, &at);
+                let l = v.norm();
+                if !(l > 0.0) {
+                    return false;
+                }
+                let dm = d[j] - d[i];
+                let (ke, kg) = m.kind.tangent_blocks(&(v / l), l);
+                let (ce, cg) = (dm.dot(&(ke * dm)), dm.dot(&(kg * dm)));
+                curvature += ce + cg;
+                size += ce.abs() + cg.abs();
+            }
+            curvature > 1e-12 * size
+        })
+    }
+
     /// True when the tangent is positive definite at the given fractions of the straight
     /// segment between displacements `a` and `b` (always true for a step too small to move
     /// any node by a millionth of the rig's size).
@@ -347,8 +377,12 @@ impl Statics<'_> {
             }
             let target = (lambda + step).min(1.0);
             let dl = target - lambda;
+            // The tangent predictor overshoots a stiffening rig; the first attempt at the whole
+            // load starts from the unloaded state itself, later steps from the predictor.
             let mut trial = u.clone();
-            sys.add_scaled(&mut trial, &t, dl);
+            if steps > 0 || dl < 1.0 {
+                sys.add_scaled(&mut trial, &t, dl);
+            }
             let outcome = self.newton(&mut trial, load, target, Mode::Local { strict: true }, STEP_ITERATIONS, total);
             let accepted = match outcome {
                 Ok(conv) if conv.definiteness == Definiteness::Positive => match conv.factor.as_ref() {
@@ -359,12 +393,10 @@ impl Statics<'_> {
                         let bound = (1.0 + SECANT_EXCESS) * c.max(c_new);
                         let tiny = 1e-12 * (c.abs() + c_new.abs()) + 1e-300;
                         // A jump to another branch crosses the unstable region between the
-                        // two basins: the rig must be stable half-way along the step, and at
-                        // the quarter points too when the end is much stiffer than the start
-                        // (next to a limit point, or under a load far beyond it, the secant
-                        // test alone says little).
-                        let fractions: &[f64] = if c_new < 0.5 * c { &[0.5, 0.25, 0.75] } else { &[0.5] };
-                        let between_stable = self.stable_along(&u, &trial, fractions);
+                        // two basins: along the step the potential must be convex in the
+                        // step's own direction (at 32 points, cheap), and the rig stable at
+                        // its mid-point (one factorisation).
+                        let between_stable = self.convex_along(&u, &trial, 32) && self.stable_along(&u, &trial, &[0.5]);
                         if work >= -tiny && work <= bound + tiny && between_stable {
                             t = t_new;
                             c = c_new;
