@@ -318,7 +318,7 @@ impl Statics<'_> {
                 let [i, j] = m.ends;
                 let v = super::system::member_vector(model, m, &at);
                 let l = v.norm();
-                if !(l > 0.0) {
+                if l.is_nan() || l <= 0.0 {
                     return false;
                 }
                 let dm = d[j] - d[i];
