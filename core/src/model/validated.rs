@@ -263,7 +263,7 @@ impl Model {
             ));
         }
 
-        problems.extend(crate::sizing::design::design_problems(p));
+        problems.extend(crate::sizing::design_rules::design_problems(p));
 
         let mut cases = Vec::new();
         if p.cases.is_empty() {
