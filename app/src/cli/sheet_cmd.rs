@@ -7,7 +7,7 @@ use rigwright_core::Project;
 use rigwright_core::model::SheetInfo;
 
 use super::{EXIT_NO_EQUILIBRIUM, Failure};
-use crate::sheet::{Paper, Sheet, SheetOptions, export};
+use rigwright_report::{Paper, Sheet, SheetOptions, export};
 
 /// Title-block fields given on the command line; each replaces the project's.
 #[derive(Args, Debug, Default)]

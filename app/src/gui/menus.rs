@@ -5,10 +5,10 @@ use eframe::egui::{self, RichText};
 use super::export::ExportKind;
 use super::palette as pal;
 use super::samples::SAMPLES;
-use super::units::Units;
-use super::view::Plane;
 use super::{Command, RigApp, Tool};
-use crate::sheet::Paper;
+use rigwright_report::Paper;
+use rigwright_report::plane::Plane;
+use rigwright_report::units::Units;
 
 pub fn menu_bar(app: &mut RigApp, ui: &mut egui::Ui) {
     egui::MenuBar::new().ui(ui, |ui| {

@@ -18,7 +18,6 @@ pub mod samples;
 pub mod sizing;
 mod solver;
 mod task;
-pub mod units;
 mod view;
 
 use std::path::{Path, PathBuf};
@@ -32,9 +31,10 @@ pub use background::hold_jobs_spawned_here;
 pub use document::Document;
 pub use readouts::ReadoutTab;
 pub use recovery::Recovery;
+pub use rigwright_report::plane::Plane;
+pub use rigwright_report::units::{Quantity, Units};
 pub use solver::{SolveOutcome, SolveRequest};
-pub use units::{Quantity, Units};
-pub use view::{Plane, RigView};
+pub use view::RigView;
 
 /// Key of the persisted settings.
 const SETTINGS_KEY: &str = "rigwright-settings";

@@ -16,7 +16,7 @@ use rigwright_core::{Equilibrium, Model, Statics, Vec3, Watch};
 use super::RigApp;
 use super::background::{BACKGROUND_DOF, Background, progress_row};
 use super::palette as pal;
-use super::units::{Quantity, Units};
+use rigwright_report::units::{Quantity, Units};
 
 /// Longest history kept for the plots (samples).
 const HISTORY: usize = 20_000;
@@ -372,7 +372,7 @@ pub fn pluck_ui(app: &mut RigApp, ui: &mut egui::Ui) {
 }
 
 fn joules(e: f64) -> String {
-    format!("{} J", super::units::significant(e, 4))
+    format!("{} J", rigwright_report::units::significant(e, 4))
 }
 
 /// The Modes tab of the Readouts.

@@ -8,8 +8,8 @@ use rigwright_core::Project;
 use rigwright_core::model::{MemberDocKind, Rest};
 
 use super::palette as pal;
-use super::units::{Quantity, Units};
 use super::{Command, RigApp, Selection};
+use rigwright_report::units::{Quantity, Units};
 
 /// A number field in display units; returns the new SI value when the user changed it.
 fn quantity(ui: &mut egui::Ui, label: &str, si: f64, q: Quantity, units: Units) -> Option<f64> {

@@ -9,8 +9,8 @@ use egui_plot::{Legend, Line, LineStyle, Plot, PlotPoints};
 use rigwright_core::{NodeStiffness, Vec3};
 
 use super::palette as pal;
-use super::units::{Quantity, Units, significant};
 use super::{RigApp, Selection};
+use rigwright_report::units::{Quantity, Units, significant};
 
 /// The tabs of the Readouts area.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

@@ -30,7 +30,7 @@ use rigwright_core::Project;
 use rigwright_core::model::{backup_path, save_atomic};
 
 use super::{Document, RigApp};
-use crate::sheet::civil_from_days;
+use rigwright_report::date::civil_from_days;
 
 /// The environment variable that overrides the data folder (tests, portable installs).
 pub const DATA_DIR_VAR: &str = "RIGWRIGHT_DATA_DIR";
@@ -565,14 +565,5 @@ mod tests {
         assert_eq!(source_of(&text), Some(PathBuf::from("/work/rigs/a.rig.ron")));
         assert_eq!(Project::from_ron(&text).unwrap(), p);
         assert_eq!(source_of(&recovery_text(&p, None)), None);
-    }
-
-    #[test]
-    fn days_since_1970_become_calendar_dates() {
-        // Checked against well-known dates (common practice): the epoch, a leap day, Y2K.
-        assert_eq!(civil_from_days(0), (1970, 1, 1));
-        assert_eq!(civil_from_days(11_016), (2000, 2, 29));
-        assert_eq!(civil_from_days(10_957), (2000, 1, 1));
-        assert_eq!(civil_from_days(-1), (1969, 12, 31));
     }
 }

@@ -20,8 +20,8 @@ use rigwright_core::sizing::{
 
 use super::background::{BACKGROUND_NODES, Background, progress_row};
 use super::palette as pal;
-use super::units::{Quantity, significant};
 use super::{Command, RigApp, Selection};
+use rigwright_report::units::{Quantity, significant};
 
 /// Sizing state kept between frames.
 #[derive(Default)]

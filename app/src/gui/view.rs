@@ -10,58 +10,9 @@ use rigwright_core::model::{CaseDoc, LoadDoc, MemberDoc, MemberDocKind, NodeDoc,
 use rigwright_core::{Project, Vec3};
 
 use super::palette as pal;
-use super::units::{Quantity, Units};
 use super::{Answer, Command, RigApp, Selection, Tool};
-
-/// Which two axes the Rig view shows.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Plane {
-    /// x to the right, y up.
-    Elevation,
-    /// z to the right, y up.
-    Side,
-    /// x to the right, z down (seen from above).
-    Plan,
-}
-
-impl Plane {
-    pub const ALL: [Plane; 3] = [Plane::Elevation, Plane::Side, Plane::Plan];
-
-    pub fn label(self) -> &'static str {
-        match self {
-            Plane::Elevation => "Elevation (x–y)",
-            Plane::Side => "Side (z–y)",
-            Plane::Plan => "Plan (x–z)",
-        }
-    }
-
-    /// Screen-plane coordinates (u right, v up) of a point or vector.
-    pub fn uv(self, p: &Vec3) -> [f64; 2] {
-        match self {
-            Plane::Elevation => [p.x, p.y],
-            Plane::Side => [p.z, p.y],
-            Plane::Plan => [p.x, -p.z],
-        }
-    }
-
-    /// The point with screen-plane coordinates `uv` and the out-of-plane coordinate of `base`.
-    pub fn from_uv(self, uv: [f64; 2], base: &Vec3) -> Vec3 {
-        match self {
-            Plane::Elevation => Vec3::new(uv[0], uv[1], base.z),
-            Plane::Side => Vec3::new(base.x, uv[1], uv[0]),
-            Plane::Plan => Vec3::new(uv[0], base.y, -uv[1]),
-        }
-    }
-
-    /// (u fixed, v fixed) for a support's held axes.
-    fn held(self, fixed: [bool; 3]) -> (bool, bool) {
-        match self {
-            Plane::Elevation => (fixed[0], fixed[1]),
-            Plane::Side => (fixed[2], fixed[1]),
-            Plane::Plan => (fixed[0], fixed[2]),
-        }
-    }
-}
+use rigwright_report::plane::Plane;
+use rigwright_report::units::{Quantity, Units};
 
 enum Drag {
     None,
@@ -151,24 +102,7 @@ impl RigView {
 
     /// Elevation for a planar rig; for a 3D rig the view in which it spreads out most.
     pub fn choose_plane(&mut self, project: &Project) {
-        let mut lo = [f64::INFINITY; 3];
-        let mut hi = [f64::NEG_INFINITY; 3];
-        for n in &project.nodes {
-            for (k, v) in [n.at.0, n.at.1, n.at.2].into_iter().enumerate() {
-                lo[k] = lo[k].min(v);
-                hi[k] = hi[k].max(v);
-            }
-        }
-        let e: Vec<f64> = (0..3).map(|k| (hi[k] - lo[k]).max(1e-6)).collect();
-        self.plane = if project.planar || project.nodes.is_empty() {
-            Plane::Elevation
-        } else if e[0] * e[2] > 1.5 * (e[0] * e[1]).max(e[2] * e[1]) {
-            Plane::Plan
-        } else if e[2] * e[1] > e[0] * e[1] {
-            Plane::Side
-        } else {
-            Plane::Elevation
-        };
+        self.plane = Plane::for_project(project);
         self.fit_next = true;
     }
 
@@ -802,7 +736,11 @@ fn draw_scale_bar_and_axes(view: &RigView, painter: &egui::Painter, units: Units
     painter.text(
         base + vec2(px / 2.0, -9.0),
         Align2::CENTER_BOTTOM,
-        format!("{} {}", super::units::significant(len_units, 3), units.symbol(Quantity::Length)),
+        format!(
+            "{} {}",
+            rigwright_report::units::significant(len_units, 3),
+            units.symbol(Quantity::Length)
+        ),
         FontId::proportional(12.0),
         pal::INK,
     );

@@ -10,7 +10,8 @@ use rigwright_core::sizing::{Catalogue, CheckReport, Status, check, project_cata
 use rigwright_core::{Equilibrium, Model, NodeStiffness, Project, Statics, Watch};
 use sha2::{Digest, Sha256};
 
-use crate::gui::units::Units;
+use crate::date::today;
+use crate::units::{Quantity, Units};
 
 /// Lowest natural frequencies listed.
 pub const MODE_COUNT: usize = 6;
@@ -69,31 +70,6 @@ pub struct Sheet {
 /// Lower-case hex SHA-256 of `bytes` (the same as `sha256sum` prints).
 pub fn sha256_hex(bytes: &[u8]) -> String {
     Sha256::digest(bytes).iter().map(|b| format!("{b:02x}")).collect()
-}
-
-/// Today's date (UTC) as YYYY-MM-DD.
-pub fn today() -> String {
-    let secs = std::time::SystemTime::now()
-        .duration_since(std::time::UNIX_EPOCH)
-        .map(|d| d.as_secs())
-        .unwrap_or(0);
-    let (y, m, d) = civil_from_days((secs / 86_400) as i64);
-    format!("{y:04}-{m:02}-{d:02}")
-}
-
-/// Proleptic Gregorian date of a day count since 1970-01-01 (the era algorithm from
-/// H. Hinnant, "chrono-Compatible Low-Level Date Algorithms", from memory).
-pub(crate) fn civil_from_days(z: i64) -> (i64, u32, u32) {
-    let z = z + 719_468;
-    let era = z.div_euclid(146_097);
-    let doe = z.rem_euclid(146_097);
-    let yoe = (doe - doe / 1460 + doe / 36_524 - doe / 146_096) / 365;
-    let doy = doe - (365 * yoe + yoe / 4 - yoe / 100);
-    let mp = (5 * doy + 2) / 153;
-    let d = (doy - (153 * mp + 2) / 5 + 1) as u32;
-    let m = if mp < 10 { mp + 3 } else { mp - 9 } as u32;
-    let y = yoe + era * 400 + i64::from(m <= 2);
-    (y, m, d)
 }
 
 fn merge(base: &SheetInfo, over: &SheetInfo) -> SheetInfo {
@@ -377,7 +353,7 @@ fn warnings(model: &Model, report: &CheckReport, drawn: usize, units: Units) -> 
                 "Large displacement in load case `{}`: node `{}` moves {}, {:.0} % of the rig's size; check clearances and that this shape is intended.",
                 c.name,
                 model.nodes[i].id,
-                units.show(crate::gui::units::Quantity::Length, d),
+                units.show(Quantity::Length, d),
                 100.0 * d / size
             ));
         }
@@ -458,15 +434,6 @@ mod tests {
             id_list(&ids, 20),
             "`c1`, `c2`, `c3`, `c4`, `c5`, `c6`, `c7`, `c8`, `c9`, `c10` and 4 more"
         );
-    }
-
-    #[test]
-    fn day_counts_map_to_known_dates() {
-        // 1970-01-01 is day 0; 2000-03-01 is day 11 017; 2024-02-29 is day 19 782 (counted
-        // by hand: 30 years with 7 leap days, then 54 years with 13).
-        assert_eq!(civil_from_days(0), (1970, 1, 1));
-        assert_eq!(civil_from_days(11_017), (2000, 3, 1));
-        assert_eq!(civil_from_days(19_782), (2024, 2, 29));
     }
 
     #[test]

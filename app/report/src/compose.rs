@@ -12,6 +12,7 @@ use super::fonts::{self, Weight};
 use super::format::{Fmt, percent};
 use super::page::{Align, Ink, Page, Paper, Pen, Style};
 use super::table::{Cell, Column, Table};
+use crate::units::Units;
 
 /// The cautions printed on every page (from the product design).
 pub const CAUTIONS: &str = "Rigging and tensioned structures can fail suddenly and hurt people. Results are a design aid for qualified persons; they do not replace the checks that local codes and standards require, the manufacturer's ratings of actual components, or review by a licensed engineer.";
@@ -899,8 +900,8 @@ fn title_block(page: &mut Page, sheet: &Sheet, paper: Paper, n: usize, of: usize
     let (x, y, w) = (MARGIN, MARGIN, pw - 2.0 * MARGIN);
     let info = &sheet.info;
     let units = match sheet.units {
-        crate::gui::units::Units::Si => "SI (m, N, kg)",
-        crate::gui::units::Units::Us => "US (ft, lbf, lb)",
+        Units::Si => "SI (m, N, kg)",
+        Units::Us => "US (ft, lbf, lb)",
     };
     // Row 1: the mark, the rig, the page.
     let h1 = 26.0;

@@ -12,7 +12,7 @@ use super::content::Sheet;
 use super::fonts::{self, Weight};
 use super::format::Fmt;
 use super::page::{Align, Ink, Page, Paper, Pen, Style};
-use crate::gui::{Plane, RigView};
+use crate::plane::Plane;
 
 /// A rectangle on the page (pt, top left).
 #[derive(Debug, Clone, Copy)]
@@ -202,9 +202,7 @@ fn dimension(page: &mut Page, a: (f32, f32), b: (f32, f32), label: &str, vertica
 /// Draws the rig into `area`, with its caption at the bottom.
 pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper) {
     let model = &sheet.model;
-    let mut view = RigView::default();
-    view.choose_plane(&sheet.project);
-    let plane = view.plane;
+    let plane = Plane::for_project(&sheet.project);
     let uv = |p: &Vec3| plane.uv(p);
     let eq = sheet.equilibrium();
     // Bounds of the drawn geometry, then of everything drawn.
