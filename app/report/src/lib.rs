@@ -13,27 +13,28 @@
 //! rig onto a drawing plane ([`plane`]), display units ([`units`]) and calendar dates
 //! ([`date`]).
 
-mod compose;
 mod content;
 pub mod date;
 mod drawing;
 pub mod export;
 pub mod fonts;
 mod format;
+mod layout;
 pub mod page;
 pub mod plane;
 mod table;
 pub mod units;
+mod warnings;
 
-pub use compose::CAUTIONS;
 pub use content::{CaseChoice, MODE_COUNT, STOPPED, Sheet, SheetOptions, sha256_hex};
 pub use date::today;
+pub use layout::CAUTIONS;
 pub use page::{Op, Page, Paper};
 
 impl Sheet {
     /// The laid-out pages (display lists), for inspection.
     pub fn pages(&self, paper: Paper) -> Vec<Page> {
-        compose::pages(self, paper)
+        layout::pages(self, paper)
     }
 
     /// The sheet as PDF bytes.
