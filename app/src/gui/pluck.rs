@@ -493,3 +493,20 @@ pub fn tick(app: &mut RigApp, wall: f64) -> bool {
     }
     moving
 }
+
+impl RigApp {
+    /// Starts a Pluck from the held shape of the Pull that was just let go.
+    pub(super) fn start_pluck(&mut self) {
+        let Some(pull) = self.pull.as_ref() else { return };
+        let Some(held) = self.solved.as_ref().filter(|o| Arc::ptr_eq(&o.model, &pull.model)) else {
+            return;
+        };
+        let Ok(held_eq) = held.result.as_ref() else { return };
+        if held_eq.hold.is_none() || !held_eq.stability.is_stable() {
+            return;
+        }
+        let (model, node) = (pull.model.clone(), pull.node);
+        let start = held_eq.positions();
+        begin(self, model, start, node);
+    }
+}

@@ -7,8 +7,9 @@ use eframe::egui::{self, DragValue, RichText};
 use rigwright_core::Project;
 use rigwright_core::model::{MemberDocKind, Rest};
 
+use super::command::edit;
 use super::palette as pal;
-use super::{Command, RigApp, Selection};
+use super::{RigApp, Selection};
 use rigwright_report::units::{Quantity, Units};
 
 /// A number field in display units; returns the new SI value when the user changed it.
@@ -35,14 +36,6 @@ fn text(ui: &mut egui::Ui, label: &str, value: &str) -> Option<String> {
     let r = ui.add(egui::TextEdit::singleline(&mut v).desired_width(150.0)).labelled_by(name);
     ui.end_row();
     r.changed().then_some(v)
-}
-
-/// Queues an edit with a merge key, so typing or dragging in one field is one undo step.
-fn edit(app: &mut RigApp, key: String, f: impl FnOnce(&mut Project) + 'static) {
-    app.queue(Command::Edit {
-        merge: Some(key),
-        apply: Box::new(f),
-    });
 }
 
 pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {

@@ -19,6 +19,7 @@ use rigwright_core::sizing::{
 };
 
 use super::background::{BACKGROUND_NODES, Background, progress_row};
+use super::command::edit;
 use super::palette as pal;
 use super::{Command, RigApp, Selection};
 use rigwright_report::units::{Quantity, significant};
@@ -110,13 +111,6 @@ impl Default for SweepPanel {
             job: None,
         }
     }
-}
-
-fn edit(app: &mut RigApp, key: String, f: impl FnOnce(&mut Project) + 'static) {
-    app.queue(Command::Edit {
-        merge: Some(key),
-        apply: Box::new(f),
-    });
 }
 
 /// The status as shown: a mark and a word, coloured as a second cue only.
