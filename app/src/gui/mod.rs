@@ -23,6 +23,7 @@ mod properties;
 mod pull;
 mod readouts;
 pub mod recovery;
+mod rig_view;
 pub mod samples;
 mod settings;
 mod shortcuts;
@@ -30,7 +31,6 @@ pub mod sizing;
 mod solver;
 mod task;
 mod tool;
-mod view;
 
 use std::path::PathBuf;
 
@@ -43,12 +43,12 @@ pub use document::Document;
 pub use pull::PullSession;
 pub use readouts::ReadoutTab;
 pub use recovery::Recovery;
+pub use rig_view::RigView;
 pub use rigwright_report::plane::Plane;
 pub use rigwright_report::units::{Quantity, Units};
 pub use settings::Settings;
 pub use solver::{SolveOutcome, SolveRequest};
 pub use tool::Tool;
-pub use view::RigView;
 
 use live_solve::RequestKey;
 use settings::SETTINGS_KEY;
@@ -283,7 +283,7 @@ impl eframe::App for RigApp {
             .show(ui, |ui| properties::ui(self, ui));
         egui::CentralPanel::default()
             .frame(egui::Frame::NONE)
-            .show(ui, |ui| view::ui(self, ui));
+            .show(ui, |ui| rig_view::ui(self, ui));
 
         about::windows(self, &ctx);
         sizing::windows(self, &ctx);

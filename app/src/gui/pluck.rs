@@ -8,7 +8,7 @@
 use std::sync::Arc;
 use std::time::Instant;
 
-use eframe::egui::{self, Color32, Pos2, RichText, Stroke};
+use eframe::egui::{self, RichText};
 use egui_plot::{Legend, Line, Plot, PlotPoints};
 use rigwright_core::dynamics::{Modes, Motion, MotionSettings, modes, modes_watched, spectrum::spectrum};
 use rigwright_core::{Equilibrium, Model, Statics, Vec3, Watch};
@@ -255,42 +255,6 @@ pub fn moving_positions(app: &RigApp) -> Option<(Vec<Vec3>, Option<Vec<f64>>)> {
     let shown_hz = mode.frequency_hz.min(1.0);
     let s = (std::f64::consts::TAU * shown_hz * m.clock).sin() * amp;
     Some((a.eq.nodes.iter().zip(&mode.shape).map(|(n, v)| n.position + v * s).collect(), None))
-}
-
-/// Draws the moving rig (Pluck or an animated mode) on the Rig view.
-pub fn draw_moving(app: &RigApp, painter: &egui::Painter, positions: &[Vec3], forces: Option<&[f64]>) {
-    let model: &Model = match (&app.pluck, app.answer()) {
-        (Some(p), _) => &p.model,
-        (None, Some(a)) => a.model,
-        _ => return,
-    };
-    let view = &app.view;
-    let max = forces.map(|f| f.iter().map(|v| v.abs()).fold(0.0, f64::max)).unwrap_or(0.0);
-    for (k, m) in model.members.iter().enumerate() {
-        let (a, b) = (view.to_screen(positions[m.ends[0]]), view.to_screen(positions[m.ends[1]]));
-        let (colour, slack) = match forces {
-            Some(f) => (
-                pal::force_colour(f[k], max),
-                matches!(m.kind, rigwright_core::MemberKind::Cable { .. }) && f[k] == 0.0,
-            ),
-            None => (pal::INK, false),
-        };
-        if slack {
-            painter.add(egui::Shape::dashed_line(&[a, b], Stroke::new(1.5, pal::SLACK), 6.0, 4.0));
-        } else {
-            painter.line_segment([a, b], Stroke::new(3.0, colour));
-        }
-    }
-    for (i, n) in model.nodes.iter().enumerate() {
-        let s: Pos2 = view.to_screen(positions[i]);
-        let r = if n.mass > 0.0 { 5.0 } else { 3.0 };
-        painter.circle(
-            s,
-            r,
-            if n.support.is_anchor() { pal::INK } else { Color32::WHITE },
-            Stroke::new(1.5, pal::INK),
-        );
-    }
 }
 
 /// The Pluck tab of the Readouts.
