@@ -1,13 +1,12 @@
-//! Project files: opening a file or a sample, saving (crash-safe, through the core), the recent
-//! files, and the question asked before unsaved changes are dropped.
+//! Project files: opening a file or a sample, saving (crash-safe, through the core) and the
+//! recent files.
 
 use std::path::{Path, PathBuf};
 
-use eframe::egui;
 use rigwright_core::Project;
 use rigwright_report::units::Units;
 
-use super::{Command, Document, RigApp, Selection, samples};
+use super::{Document, RigApp, Selection, samples};
 
 /// Recent files kept.
 const RECENT: usize = 8;
@@ -86,30 +85,6 @@ impl RigApp {
                 self.doc.saved(path);
             }
             Err(e) => self.message = Some((format!("Could not save: {e}"), true)),
-        }
-    }
-
-    pub(super) fn discard_prompt(&mut self, ctx: &egui::Context) {
-        if self.pending_discard.is_none() {
-            return;
-        }
-        let name = self.doc.name();
-        let mut out = None;
-        egui::Modal::new(egui::Id::unique("discard-prompt")).show(ctx, |ui| {
-            ui.heading("Unsaved changes");
-            ui.label(format!("`{name}` has changes that are not saved. Discard them?"));
-            ui.add_space(8.0);
-            ui.horizontal(|ui| {
-                if ui.button("Discard changes").clicked() {
-                    out = Some(Command::Discard);
-                }
-                if ui.button("Keep editing").clicked() {
-                    out = Some(Command::KeepEditing);
-                }
-            });
-        });
-        if let Some(c) = out {
-            self.commands.push(c);
         }
     }
 }

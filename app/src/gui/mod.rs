@@ -12,6 +12,7 @@
 mod about;
 mod background;
 mod command;
+mod discard;
 mod document;
 pub mod export;
 mod files;
