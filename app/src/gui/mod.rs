@@ -18,6 +18,7 @@ pub mod export;
 mod files;
 mod live_solve;
 mod menus;
+mod modes;
 mod palette;
 mod pluck;
 mod properties;
@@ -89,9 +90,9 @@ pub struct RigApp {
     /// The rig vibrating after a Pull was let go.
     pub pluck: Option<pluck::PluckSession>,
     /// Natural modes of the current answer (computed when the Modes tab is shown).
-    pub modes: Option<pluck::ModesState>,
+    pub modes: Option<modes::ModesState>,
     /// Modes of a large rig being computed on another thread.
-    pub modes_job: Option<pluck::ModesJob>,
+    pub modes_job: Option<modes::ModesJob>,
     /// A Pluck being prepared on another thread (large rigs).
     pub pluck_job: Option<pluck::PluckJob>,
     /// Auto-size or an export running on another thread (large rigs).
