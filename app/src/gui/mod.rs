@@ -31,6 +31,7 @@ mod settings;
 mod shortcuts;
 pub mod sizing;
 mod solver;
+mod spring_designer;
 mod task;
 mod tool;
 
@@ -288,7 +289,7 @@ impl eframe::App for RigApp {
             .show(ui, |ui| rig_view::ui(self, ui));
 
         about::windows(self, &ctx);
-        sizing::windows(self, &ctx);
+        spring_designer::windows(self, &ctx);
         self.discard_prompt(&ctx);
         recovery::offer_modal(self, &ctx);
 

@@ -5,12 +5,14 @@
 //! variant of [`ReadoutTab`] (`tab.rs`), its file, and an arm of the `match` in [`ui`].
 
 mod cells;
+mod checks;
 mod members;
 mod modes;
 mod nodes;
 mod pluck;
 mod pull;
 mod stiffness;
+mod sweep;
 mod tab;
 
 use eframe::egui::{self, RichText};
@@ -44,8 +46,8 @@ pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
         ReadoutTab::Pull => return pull::ui(app, ui),
         ReadoutTab::Pluck => return pluck::ui(app, ui),
         ReadoutTab::Modes => return modes::ui(app, ui),
-        ReadoutTab::Checks => return crate::gui::sizing::checks_ui(app, ui),
-        ReadoutTab::Sweep => return crate::gui::sizing::sweep_ui(app, ui),
+        ReadoutTab::Checks => return checks::ui(app, ui),
+        ReadoutTab::Sweep => return sweep::ui(app, ui),
         _ => {}
     }
     let Some(answer) = app.answer() else {
