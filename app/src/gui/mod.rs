@@ -32,8 +32,10 @@ mod shortcuts;
 pub mod sizing;
 mod solver;
 mod spring_designer;
+mod status_bar;
 mod task;
 mod tool;
+mod toolbar;
 
 use std::path::PathBuf;
 
@@ -272,9 +274,9 @@ impl eframe::App for RigApp {
             self.commands.push(Command::Close);
         }
 
-        egui::Panel::top("menu").show(ui, |ui| menus::menu_bar(self, ui));
-        egui::Panel::top("tools").show(ui, |ui| menus::toolbar(self, ui));
-        egui::Panel::bottom("status").show(ui, |ui| menus::status_bar(self, ui));
+        egui::Panel::top("menu").show(ui, |ui| menus::ui(self, ui));
+        egui::Panel::top("tools").show(ui, |ui| toolbar::ui(self, ui));
+        egui::Panel::bottom("status").show(ui, |ui| status_bar::ui(self, ui));
         egui::Panel::bottom("readouts")
             .resizable(true)
             .default_size(230.0)
