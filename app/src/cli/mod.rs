@@ -3,260 +3,21 @@
 //! Exit codes: 0 solved, 2 bad input (message on stderr), 3 no valid equilibrium
 //! (diagnostic on stderr); `check` and `autosize` exit 1 when a check fails.
 
-use std::path::{Path, PathBuf};
 use std::process::ExitCode;
 
-use clap::{Parser, Subcommand};
-use rigwright_core::{Equilibrium, Model, Project, SolveError, Statics};
+use clap::Parser;
+use rigwright_core::{Equilibrium, Statics};
 
+mod args;
 mod dynamics;
+mod load;
 mod report;
 mod sheet_cmd;
 pub mod sizing;
 
-/// Exit code for bad input.
-pub const EXIT_BAD_INPUT: u8 = 2;
-/// Exit code when there is no valid equilibrium.
-pub const EXIT_NO_EQUILIBRIUM: u8 = 3;
-
-#[derive(Parser, Debug)]
-#[command(
-    name = "rigwright",
-    version,
-    about = "Large-displacement statics of cable-and-spring rigs",
-    after_help = "Exit codes: 0 done; 1 a member fails a check (check, autosize); 2 bad input (the message says what and where); 3 a load case has no equilibrium (solve, modes, pluck; sheet and export still write their files, which say so).\n\nRigging can hurt people: results are a design aid for qualified persons and do not replace local codes, manufacturers' ratings or review by a licensed engineer."
-)]
-#[command(args_conflicts_with_subcommands = true)]
-pub struct Cli {
-    /// Project file (*.rig.ron) to open in the window; without it the last project reopens.
-    pub file: Option<PathBuf>,
-    /// A headless subcommand; without one the window opens.
-    #[command(subcommand)]
-    pub command: Option<Command>,
-}
-
-#[derive(Subcommand, Debug)]
-pub enum Command {
-    /// Solve the static equilibrium of a load case and print member forces and reactions.
-    Solve {
-        /// Project file (*.rig.ron).
-        file: PathBuf,
-        /// Load case name (default: the first case).
-        #[arg(long)]
-        case: Option<String>,
-        /// Print one JSON document (SI units) instead of tables.
-        #[arg(long)]
-        json: bool,
-        /// Also print the condensed tangent stiffness at this node.
-        #[arg(long)]
-        stiffness: Option<String>,
-    },
-    /// Natural frequencies and mode shapes about the equilibrium of a load case.
-    Modes {
-        /// Project file (*.rig.ron).
-        file: PathBuf,
-        /// Load case name (default: the first case).
-        #[arg(long)]
-        case: Option<String>,
-        /// Number of modes (lowest first).
-        #[arg(long, default_value_t = 6)]
-        count: usize,
-        /// Print one JSON document (SI units).
-        #[arg(long)]
-        json: bool,
-    },
-    /// Pull a node, release it and follow the nonlinear free vibration.
-    Pluck {
-        /// Project file (*.rig.ron).
-        file: PathBuf,
-        /// Node to pull.
-        #[arg(long)]
-        node: String,
-        /// Pull offset in metres, "DX,DY" or "DX,DY,DZ".
-        #[arg(long, allow_hyphen_values = true)]
-        offset: String,
-        /// Time to follow (s).
-        #[arg(long)]
-        duration: f64,
-        /// Time step (s); default 1/200 of the lowest natural period, at most 1 ms.
-        #[arg(long)]
-        dt: Option<f64>,
-        /// Damping ratio at the two lowest natural frequencies (Rayleigh), e.g. 0.02.
-        #[arg(long)]
-        damping: Option<f64>,
-        /// Numerical dissipation: generalized-α with this spectral radius (0–1) instead of
-        /// the energy-conserving scheme.
-        #[arg(long)]
-        rho_inf: Option<f64>,
-        /// Also pluck at this many growing amplitudes up to the offset (backbone curve).
-        #[arg(long)]
-        backbone: Option<usize>,
-        /// Load case name (default: the first case).
-        #[arg(long)]
-        case: Option<String>,
-        /// Write the time histories to this CSV file.
-        #[arg(long)]
-        csv: Option<PathBuf>,
-        /// Print one JSON document (SI units) with the histories.
-        #[arg(long)]
-        json: bool,
-    },
-    /// Check every member in every load case: tension, slack, spring stress and solid length,
-    /// strut buckling. Exit 0 when all pass, 1 when any fails, 2 on bad input.
-    Check {
-        /// Project file (*.rig.ron).
-        file: PathBuf,
-        /// Extra catalogue file(s) (*.parts.ron) to find parts in.
-        #[arg(long)]
-        catalogue: Vec<PathBuf>,
-        /// Print one JSON document (SI units).
-        #[arg(long)]
-        json: bool,
-    },
-    /// Choose the lightest catalogue part for cables that passes every case, re-solving until
-    /// the choice is stable.
-    Autosize {
-        /// Project file (*.rig.ron).
-        file: PathBuf,
-        /// Cable to size (repeat; default: every cable).
-        #[arg(long)]
-        member: Vec<String>,
-        /// Extra catalogue file(s) (*.parts.ron).
-        #[arg(long)]
-        catalogue: Vec<PathBuf>,
-        /// Choose only among parts whose id contains this text, e.g. `6x19-IWRC` or `-1770`.
-        #[arg(long)]
-        only: Option<String>,
-        /// Write the sized project here.
-        #[arg(short, long)]
-        output: Option<PathBuf>,
-        /// Print one JSON document.
-        #[arg(long)]
-        json: bool,
-    },
-    /// Vary one parameter over a range and tabulate outputs.
-    Sweep {
-        /// Project file (*.rig.ron).
-        file: PathBuf,
-        /// member:ID:pretension | member:ID:rate | member:ID:ea | node:ID:x|y|z | node:ID:mass |
-        /// load:CASE:NODE:x|y|z
-        #[arg(long)]
-        param: String,
-        /// First value (SI).
-        #[arg(long, allow_hyphen_values = true)]
-        from: f64,
-        /// Last value (SI).
-        #[arg(long, allow_hyphen_values = true)]
-        to: f64,
-        /// Number of values, at least 2.
-        #[arg(long, default_value_t = 11)]
-        steps: usize,
-        /// Output (repeat): lowest-frequency, peak-tension, peak-utilisation,
-        /// displacement:NODE[:x|y|z], stiffness:NODE:x|y|z, force:MEMBER.
-        #[arg(long)]
-        output: Vec<String>,
-        /// Load case name (default: the first case).
-        #[arg(long)]
-        case: Option<String>,
-        /// Print CSV.
-        #[arg(long, conflicts_with = "json")]
-        csv: bool,
-        /// Print one JSON document.
-        #[arg(long)]
-        json: bool,
-    },
-    /// Propose a helical spring for a rate and working force (Shigley ch. 10 formulas).
-    Spring {
-        /// Rate (N/m).
-        #[arg(long)]
-        rate: f64,
-        /// Largest working force (N).
-        #[arg(long)]
-        force: f64,
-        /// music-wire, oil-tempered, hard-drawn, chrome-vanadium, chrome-silicon, stainless-302.
-        #[arg(long, default_value = "oil-tempered")]
-        material: String,
-        /// plain, plain-ground, squared, squared-ground, extension.
-        #[arg(long, default_value = "squared-ground")]
-        ends: String,
-        /// Largest outside diameter (mm).
-        #[arg(long)]
-        max_od: Option<f64>,
-        /// Smallest inside diameter (mm).
-        #[arg(long)]
-        min_id: Option<f64>,
-        /// Longest free length (mm).
-        #[arg(long)]
-        max_free_length: Option<f64>,
-        /// Design factor on the allowable stress.
-        #[arg(long, default_value_t = 1.2)]
-        design_factor: f64,
-        /// End-condition constant of the buckling check: 1 pivoted ends, 0.5 flat parallel ends.
-        #[arg(long, default_value_t = 1.0)]
-        alpha: f64,
-        /// Print one JSON document.
-        #[arg(long)]
-        json: bool,
-    },
-    /// List catalogue parts (built-in ropes, a project's own parts, catalogue files).
-    Parts {
-        /// Project whose own parts to include.
-        file: Option<PathBuf>,
-        /// Extra catalogue file(s) (*.parts.ron).
-        #[arg(long)]
-        catalogue: Vec<PathBuf>,
-        /// Show only ids or descriptions containing this text.
-        #[arg(long)]
-        filter: Option<String>,
-    },
-    /// Write the Sheet: a printable PDF summary (title block, drawing, member checks across all
-    /// load cases, nodes, natural frequencies, warnings, cautions).
-    Sheet {
-        /// Project file (*.rig.ron).
-        file: PathBuf,
-        /// PDF file to write.
-        #[arg(short, long)]
-        output: PathBuf,
-        /// Load case drawn and tabulated (default: the governing case).
-        #[arg(long)]
-        case: Option<String>,
-        /// Paper size: a4 or letter.
-        #[arg(long, default_value = "a4")]
-        paper: String,
-        /// List the tangent stiffness at this node (repeat for more nodes).
-        #[arg(long)]
-        stiffness: Vec<String>,
-        /// Extra catalogue file(s) (*.parts.ron) to find parts in, as for `check`.
-        #[arg(long)]
-        catalogue: Vec<PathBuf>,
-        #[command(flatten)]
-        info: sheet_cmd::InfoArgs,
-    },
-    /// Write result files: members and nodes as CSV, the full result as JSON (SI units).
-    Export {
-        /// Project file (*.rig.ron).
-        file: PathBuf,
-        /// Load case of the node table and of the members' force columns (default: the
-        /// governing case).
-        #[arg(long)]
-        case: Option<String>,
-        /// Members CSV to write (checks across all cases, force in the chosen case).
-        #[arg(long)]
-        csv_members: Option<PathBuf>,
-        /// Nodes CSV to write (positions, displacements, reactions in the chosen case).
-        #[arg(long)]
-        csv_nodes: Option<PathBuf>,
-        /// JSON file to write (`rigwright.result/1`: every case, every check); `-` prints it.
-        #[arg(long)]
-        json: Option<PathBuf>,
-        /// Also give the tangent stiffness at this node in the JSON (repeat for more).
-        #[arg(long)]
-        stiffness: Vec<String>,
-        /// Extra catalogue file(s) (*.parts.ron) to find parts in, as for `check`.
-        #[arg(long)]
-        catalogue: Vec<PathBuf>,
-    },
-}
+pub use args::{Cli, Command};
+use load::load_case;
+pub use load::{EXIT_BAD_INPUT, EXIT_NO_EQUILIBRIUM, Failure};
 
 /// Parses "DX,DY" or "DX,DY,DZ" (m).
 fn parse_offset(text: &str) -> Result<rigwright_core::Vec3, Failure> {
@@ -302,52 +63,6 @@ pub fn main() -> ExitCode {
     }
 }
 
-/// An error that ends the command, with its exit code.
-#[derive(Debug)]
-pub struct Failure {
-    pub code: u8,
-    pub message: String,
-}
-
-impl Failure {
-    fn input(message: impl Into<String>) -> Self {
-        Failure {
-            code: EXIT_BAD_INPUT,
-            message: message.into(),
-        }
-    }
-}
-
-fn load(path: &Path) -> Result<(Project, Model), Failure> {
-    Project::load_model(path).map_err(|e| load_failure(path, &e))
-}
-
-/// A project file that could not be read or used, named once, with what to do about it.
-pub(crate) fn load_failure(path: &Path, e: &rigwright_core::model::ProjectError) -> Failure {
-    use rigwright_core::model::ProjectError;
-    match e {
-        // The message already names the file.
-        ProjectError::Io { .. } => Failure::input(format!("{e}; check the file's name and folder")),
-        _ => Failure::input(format!("{}: {e}", path.display())),
-    }
-}
-
-fn case_index(model: &Model, case: Option<&str>) -> Result<usize, Failure> {
-    match case {
-        None => Ok(0),
-        Some(name) => model
-            .case_index(name)
-            .ok_or_else(|| Failure::input(SolveError::UnknownCase(name.into(), case_list(model)).to_string())),
-    }
-}
-
-/// Loads a project and resolves the load case (default: the first).
-fn load_case(path: &Path, case: Option<&str>) -> Result<(Model, usize), Failure> {
-    let (_, model) = load(path)?;
-    let case = case_index(&model, case).map_err(|f| Failure::input(format!("{}: {}", path.display(), f.message)))?;
-    Ok((model, case))
-}
-
 /// Prints a command's output; a JSON document ends with a newline.
 fn print_output(text: &str, json: bool) {
     if json {
@@ -355,10 +70,6 @@ fn print_output(text: &str, json: bool) {
     } else {
         print!("{text}");
     }
-}
-
-fn case_list(model: &Model) -> String {
-    model.cases.iter().map(|c| format!("`{}`", c.name)).collect::<Vec<_>>().join(", ")
 }
 
 /// Exit 1 with `why` unless `ok`.
