@@ -9,9 +9,11 @@
 pub mod autosize;
 pub mod catalogue;
 pub mod check;
+mod check_report;
 pub mod design;
 pub mod design_rules;
 pub mod material;
+mod member_checks;
 pub mod rope;
 pub mod spring;
 pub mod sweep;
