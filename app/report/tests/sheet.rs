@@ -2,7 +2,7 @@
 //! app: no text runs past the margins, page 1 summarises a large rig, a stopped build says
 //! so, a large displacement is pointed out. (The Sheet and the exports made through the
 //! command line and the app, read back from the PDF, CSV and JSON, are tested in
-//! `app/tests/sheet.rs`.) Expected numbers are computed here from the core's solver,
+//! `app/tests/cli.rs`.) Expected numbers are computed here from the core's solver,
 //! independently of the sheet code.
 
 use std::path::PathBuf;
