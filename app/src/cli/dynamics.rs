@@ -7,7 +7,7 @@ use rigwright_core::dynamics::{MotionSettings, PluckSpec, Record, backbone, mode
 use rigwright_core::{Equilibrium, Model, Statics, Vec3};
 use serde_json::{Value, json};
 
-use super::{EXIT_NO_EQUILIBRIUM, Failure};
+use super::load::{EXIT_BAD_INPUT, EXIT_NO_EQUILIBRIUM, Failure};
 
 /// Solves the case and refuses an equilibrium that is not stable.
 fn stable_equilibrium(statics: &Statics, case: usize) -> Result<Equilibrium, Failure> {
@@ -105,7 +105,7 @@ pub struct PluckArgs<'a> {
 /// `rigwright pluck`.
 pub fn pluck_command(model: &Model, a: &PluckArgs) -> Result<String, Failure> {
     let bad = |m: String| Failure {
-        code: super::EXIT_BAD_INPUT,
+        code: EXIT_BAD_INPUT,
         message: m,
     };
     let node = model

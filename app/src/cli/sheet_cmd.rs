@@ -6,8 +6,8 @@ use clap::Args;
 use rigwright_core::Project;
 use rigwright_core::model::SheetInfo;
 
-use super::{EXIT_NO_EQUILIBRIUM, Failure};
-use crate::sheet::{Paper, Sheet, SheetOptions, export};
+use super::load::{EXIT_NO_EQUILIBRIUM, Failure, load_failure};
+use rigwright_report::{Paper, Sheet, SheetOptions, export};
 
 /// Title-block fields given on the command line; each replaces the project's.
 #[derive(Args, Debug, Default)]
@@ -60,7 +60,7 @@ pub struct Choice {
 
 /// Reads the project and builds the sheet's content.
 fn build(file: &Path, choice: Choice, info: SheetInfo) -> Result<Sheet, Failure> {
-    let project = Project::load(file).map_err(|e| super::load_failure(file, &e))?;
+    let project = Project::load(file).map_err(|e| load_failure(file, &e))?;
     let bytes = std::fs::read(file).map_err(|e| Failure::input(format!("{}: {e}", file.display())))?;
     let options = SheetOptions {
         case: choice.case,

@@ -11,13 +11,13 @@ use rigwright_core::sizing::{
 };
 use serde_json::json;
 
-use super::{EXIT_BAD_INPUT, Failure};
+use super::load::{EXIT_BAD_INPUT, Failure, load_failure};
 
 /// Exit code of `check` when any check fails or a case has no equilibrium.
 pub const EXIT_CHECK_FAILED: u8 = 1;
 
 fn read_project(path: &Path) -> Result<Project, Failure> {
-    let p = Project::load(path).map_err(|e| super::load_failure(path, &e))?;
+    let p = Project::load(path).map_err(|e| load_failure(path, &e))?;
     p.validate().map_err(|e| Failure::input(format!("{}: {e}", path.display())))?;
     Ok(p)
 }

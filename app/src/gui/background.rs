@@ -11,13 +11,23 @@ use std::sync::mpsc::{Receiver, TryRecvError, channel};
 use std::time::{Duration, Instant};
 
 use eframe::egui;
-use rigwright_core::Watch;
+use rigwright_core::{Model, Watch};
 
 /// Above this many nodes, work that solves every load case (checks, Sweeps, auto-size, the
 /// Sheet) runs on another thread.
 pub const BACKGROUND_NODES: usize = 350;
 /// Above this many free DOFs the modes and the preparation of a Pluck run on another thread.
 pub const BACKGROUND_DOF: usize = 1000;
+
+/// Free degrees of freedom of `model` (cheap: no sparse analysis, unlike `Statics::new`).
+pub fn free_dofs(model: &Model) -> usize {
+    rigwright_core::solve::system::DofMap::new(model, None).count
+}
+
+/// The key of a model: its address, which changes with every edit.
+pub fn model_key(model: &Model) -> usize {
+    model as *const Model as usize
+}
 
 thread_local! {
     static GATE: RefCell<Option<Arc<AtomicBool>>> = const { RefCell::new(None) };

@@ -3,8 +3,8 @@
 
 use std::path::{Path, PathBuf};
 
-use crate::sheet::{Paper, Sheet, SheetOptions, export};
 use rigwright_core::Watch;
+use rigwright_report::{Paper, Sheet, SheetOptions, export};
 
 use super::RigApp;
 

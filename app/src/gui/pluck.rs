@@ -1,25 +1,23 @@
-//! Pluck and Modes: the rig in motion.
+//! Pluck: the rig in motion.
 //!
 //! Responsible for running a Pluck (the nonlinear free vibration after a pulled node is let
-//! go) in real time, animating one natural mode, drawing the moving rig on the Rig view and
-//! the Pluck and Modes tabs of the Readouts. The mechanics — time integration, frequencies,
-//! spectra — all come from `rigwright_core::dynamics`.
+//! go) in real time and for the clock of an animated mode; the positions the Rig view draws
+//! while either moves. The mechanics — time integration, frequencies, spectra — all come
+//! from `rigwright_core::dynamics`. Drawn by `rig_view/moving.rs`, tabulated by the Pluck
+//! and Modes tabs of the Readouts.
 
 use std::sync::Arc;
 use std::time::Instant;
 
-use eframe::egui::{self, Color32, Pos2, RichText, Stroke};
-use egui_plot::{Legend, Line, Plot, PlotPoints};
-use rigwright_core::dynamics::{Modes, Motion, MotionSettings, modes, modes_watched, spectrum::spectrum};
+use rigwright_core::dynamics::{Motion, MotionSettings, modes_watched, spectrum::spectrum};
 use rigwright_core::{Equilibrium, Model, Statics, Vec3, Watch};
 
 use super::RigApp;
-use super::background::{BACKGROUND_DOF, Background, progress_row};
-use super::palette as pal;
-use super::units::{Quantity, Units};
+use super::background::{BACKGROUND_DOF, Background, free_dofs, model_key};
 
 /// Longest history kept for the plots (samples).
 const HISTORY: usize = 20_000;
+
 /// Compute allowed per frame for time stepping (s), so the window stays responsive.
 const FRAME_BUDGET: f64 = 0.030;
 
@@ -144,16 +142,6 @@ impl PluckSession {
 /// belongs to.
 pub type PluckJob = Background<(usize, usize), Result<PluckSession, String>>;
 
-/// Free degrees of freedom of `model` (cheap: no sparse analysis, unlike `Statics::new`).
-fn free_dofs(model: &Model) -> usize {
-    rigwright_core::solve::system::DofMap::new(model, None).count
-}
-
-/// The key of a model: its address, which changes with every edit.
-pub fn model_key(model: &Model) -> usize {
-    model as *const Model as usize
-}
-
 /// Prepares a Pluck released from `start` (the held shape of a Pull of `node`): the
 /// equilibrium it vibrates about, found from the held shape, then the session.
 pub fn prepare(model: Arc<Model>, case: usize, start: Vec<Vec3>, node: usize, watch: &Watch) -> Result<PluckSession, String> {
@@ -184,62 +172,6 @@ pub fn begin(app: &mut RigApp, model: Arc<Model>, start: Vec<Vec3>, node: usize)
     app.pluck_job = Some(Background::spawn(key, move |watch| prepare(model, case, start, node, &watch)));
 }
 
-/// Natural modes of the current equilibrium, and the one being animated.
-/// Modes being computed on another thread, keyed like [`ModesState`].
-pub type ModesJob = Background<(usize, usize), Result<Modes, String>>;
-
-pub struct ModesState {
-    /// Which solve the modes belong to (model pointer and case).
-    pub key: (usize, usize),
-    pub result: Result<Modes, String>,
-    pub animate: Option<usize>,
-    /// Animation clock (s).
-    pub clock: f64,
-    /// The computation was cancelled by the user (no result; offer to compute again).
-    pub cancelled: bool,
-}
-
-/// Computes the modes of the current answer if they are missing or stale: at once for small
-/// rigs, on another thread for large ones (the window keeps running meanwhile).
-pub fn refresh_modes(app: &mut RigApp) {
-    let Some(a) = app.answer() else {
-        app.modes = None;
-        app.modes_job = None;
-        return;
-    };
-    let key = (model_key(a.model), app.case);
-    if app.modes.as_ref().is_some_and(|m| m.key == key) {
-        return;
-    }
-    let done = |result| ModesState {
-        key,
-        result,
-        animate: None,
-        clock: 0.0,
-        cancelled: false,
-    };
-    if let Some(job) = app.modes_job.as_ref().filter(|j| j.key == key) {
-        if let Some(r) = job.poll() {
-            app.modes = Some(done(r.and_then(|r| r)));
-            app.modes_job = None;
-        }
-        return;
-    }
-    if free_dofs(a.model) <= BACKGROUND_DOF {
-        let result = modes(&Statics::new(a.model), a.eq, 12).map_err(|e| e.to_string());
-        app.modes = Some(done(result));
-        return;
-    }
-    let (Some(model), eq) = (app.solved.as_ref().map(|s| s.model.clone()), a.eq.clone()) else {
-        return;
-    };
-    app.modes = None;
-    app.modes_job = Some(Background::spawn(key, move |watch| {
-        let statics = Statics::new(&model);
-        modes_watched(&statics, &eq, 12, &watch).map_err(|e| e.to_string())
-    }));
-}
-
 /// Positions to draw in place of the static answer, with member forces if known.
 pub fn moving_positions(app: &RigApp) -> Option<(Vec<Vec3>, Option<Vec<f64>>)> {
     if let Some(p) = &app.pluck {
@@ -255,209 +187,6 @@ pub fn moving_positions(app: &RigApp) -> Option<(Vec<Vec3>, Option<Vec<f64>>)> {
     let shown_hz = mode.frequency_hz.min(1.0);
     let s = (std::f64::consts::TAU * shown_hz * m.clock).sin() * amp;
     Some((a.eq.nodes.iter().zip(&mode.shape).map(|(n, v)| n.position + v * s).collect(), None))
-}
-
-/// Draws the moving rig (Pluck or an animated mode) on the Rig view.
-pub fn draw_moving(app: &RigApp, painter: &egui::Painter, positions: &[Vec3], forces: Option<&[f64]>) {
-    let model: &Model = match (&app.pluck, app.answer()) {
-        (Some(p), _) => &p.model,
-        (None, Some(a)) => a.model,
-        _ => return,
-    };
-    let view = &app.view;
-    let max = forces.map(|f| f.iter().map(|v| v.abs()).fold(0.0, f64::max)).unwrap_or(0.0);
-    for (k, m) in model.members.iter().enumerate() {
-        let (a, b) = (view.to_screen(positions[m.ends[0]]), view.to_screen(positions[m.ends[1]]));
-        let (colour, slack) = match forces {
-            Some(f) => (
-                pal::force_colour(f[k], max),
-                matches!(m.kind, rigwright_core::MemberKind::Cable { .. }) && f[k] == 0.0,
-            ),
-            None => (pal::INK, false),
-        };
-        if slack {
-            painter.add(egui::Shape::dashed_line(&[a, b], Stroke::new(1.5, pal::SLACK), 6.0, 4.0));
-        } else {
-            painter.line_segment([a, b], Stroke::new(3.0, colour));
-        }
-    }
-    for (i, n) in model.nodes.iter().enumerate() {
-        let s: Pos2 = view.to_screen(positions[i]);
-        let r = if n.mass > 0.0 { 5.0 } else { 3.0 };
-        painter.circle(
-            s,
-            r,
-            if n.support.is_anchor() { pal::INK } else { Color32::WHITE },
-            Stroke::new(1.5, pal::INK),
-        );
-    }
-}
-
-/// The Pluck tab of the Readouts.
-pub fn pluck_ui(app: &mut RigApp, ui: &mut egui::Ui) {
-    let units = app.settings.units;
-    if let Some(job) = &app.pluck_job {
-        let text = format!(
-            "Preparing the Pluck of this large rig (the equilibrium it vibrates about and its lowest mode)… {:.1} s",
-            job.started.elapsed().as_secs_f64()
-        );
-        if progress_row(ui, text, "Do not start this Pluck") {
-            app.pluck_job = None;
-        }
-        return;
-    }
-    let Some(p) = app.pluck.as_mut() else {
-        ui.label("No Pluck running. Choose the Pull tool, drag a free node and let go: the rig vibrates from where you released it.");
-        return;
-    };
-    let mut stop = false;
-    ui.horizontal(|ui| {
-        let label = if p.playing { "Pause" } else { "Play" };
-        if ui.button(label).on_hover_text("Pause or resume the motion").clicked() {
-            p.playing = !p.playing;
-        }
-        ui.label("Speed");
-        ui.add(egui::Slider::new(&mut p.speed, 0.05..=2.0).logarithmic(true).suffix(" ×"))
-            .on_hover_text("Rig seconds per second of wall-clock time");
-        if ui
-            .button("Stop")
-            .on_hover_text("End the Pluck and show the equilibrium again")
-            .clicked()
-        {
-            stop = true;
-        }
-    });
-    ui.separator();
-    ui.columns(2, |cols| {
-        let ui = &mut cols[0];
-        ui.label(RichText::new(format!("Pluck of `{}`", p.node_id)).strong());
-        ui.label(format!("time {:.3} s, step {:.2e} s", p.motion.time(), p.motion.settings().dt));
-        match p.dominant_hz {
-            Some(f) => ui.label(format!("dominant frequency {f:.3} Hz")),
-            None => ui.label("dominant frequency: needs a longer record"),
-        };
-        if let Some(f) = p.linear_hz {
-            ui.label(format!("lowest linear natural frequency {f:.3} Hz"));
-        }
-        let e = p.motion.energy();
-        ui.label(format!(
-            "kinetic {}, strain + load {}",
-            joules(e.kinetic),
-            joules(e.strain + e.load)
-        ));
-        ui.label(format!("energy error {:.1e} of the energy in play", p.energy_error));
-        ui.label(format!("cable slack events {}", p.motion.slack_events()));
-        let u = p.motion.positions()[p.node] - p.about[p.node];
-        ui.label(format!(
-            "displacement of `{}` {}",
-            p.node_id,
-            units.show(Quantity::Length, u.norm())
-        ));
-        if let Some(f) = &p.failure {
-            ui.colored_label(pal::ALARM, format!("stopped: {f}"));
-        }
-        let ui = &mut cols[1];
-        let pts: Vec<[f64; 2]> = p.history.iter().map(|h| [h[0], units.to_display(Quantity::Length, h[1])]).collect();
-        Plot::new("pluck-history")
-            .legend(Legend::default())
-            .x_axis_label("time (s)")
-            .y_axis_label(format!("displacement along the pull ({})", units.symbol(Quantity::Length)))
-            .show(ui, |plot| {
-                plot.line(Line::new(format!("`{}`", p.node_id), PlotPoints::from(pts)).color(pal::PULL))
-            });
-    });
-    if stop {
-        app.pluck = None;
-    }
-}
-
-fn joules(e: f64) -> String {
-    format!("{} J", super::units::significant(e, 4))
-}
-
-/// The Modes tab of the Readouts.
-pub fn modes_ui(app: &mut RigApp, ui: &mut egui::Ui) {
-    refresh_modes(app);
-    let units: Units = app.settings.units;
-    if let Some(job) = &app.modes_job {
-        let key = job.key;
-        let text = format!(
-            "Computing the natural modes of this large rig… {:.1} s, {} Lanczos blocks",
-            job.started.elapsed().as_secs_f64(),
-            job.steps_done()
-        );
-        if progress_row(ui, text, "Stop computing the modes") {
-            app.modes_job = None;
-            app.modes = Some(ModesState {
-                key,
-                result: Err("cancelled".into()),
-                animate: None,
-                clock: 0.0,
-                cancelled: true,
-            });
-        }
-        return;
-    }
-    let Some(state) = app.modes.as_mut() else {
-        ui.label("No stable equilibrium: natural frequencies exist only about a stable state.");
-        return;
-    };
-    if state.cancelled {
-        ui.horizontal(|ui| {
-            ui.label("The computation of the natural modes was cancelled.");
-            if ui
-                .button("Compute the modes")
-                .on_hover_text("Start computing the modes again")
-                .clicked()
-            {
-                app.modes = None;
-            }
-        });
-        return;
-    }
-    let list = match &state.result {
-        Ok(m) => m,
-        Err(e) => {
-            ui.colored_label(pal::ALARM, e);
-            return;
-        }
-    };
-    let mass_unit = units.symbol(Quantity::Mass);
-    let mut choice = state.animate;
-    egui::ScrollArea::vertical().show(ui, |ui| {
-        egui::Grid::new("modes-table").striped(true).show(ui, |ui| {
-            for h in [
-                "mode",
-                "frequency (Hz)",
-                "period (s)",
-                &format!("effective mass x, y, z ({mass_unit})"),
-                "",
-            ] {
-                ui.label(RichText::new(h).strong());
-            }
-            ui.end_row();
-            for (k, m) in list.modes.iter().enumerate() {
-                ui.label(format!("{}", k + 1));
-                ui.label(format!("{:.4}", m.frequency_hz));
-                ui.label(format!("{:.5}", m.period_s));
-                let em = m.effective_mass.map(|v| units.to_display(Quantity::Mass, v));
-                ui.label(format!("{:.2}, {:.2}, {:.2}", em[0], em[1], em[2]));
-                let on = choice == Some(k);
-                if ui
-                    .selectable_label(on, if on { "Animating" } else { "Animate" })
-                    .on_hover_text("Show this mode shape moving on the Rig view")
-                    .clicked()
-                {
-                    choice = if on { None } else { Some(k) };
-                }
-                ui.end_row();
-            }
-        });
-    });
-    if choice != state.animate {
-        state.animate = choice;
-        state.clock = 0.0;
-    }
 }
 
 /// Advances Pluck and mode animation clocks; returns true when the view must keep repainting.
@@ -492,4 +221,21 @@ pub fn tick(app: &mut RigApp, wall: f64) -> bool {
         moving = true;
     }
     moving
+}
+
+impl RigApp {
+    /// Starts a Pluck from the held shape of the Pull that was just let go.
+    pub(super) fn start_pluck(&mut self) {
+        let Some(pull) = self.pull.as_ref() else { return };
+        let Some(held) = self.solved.as_ref().filter(|o| Arc::ptr_eq(&o.model, &pull.model)) else {
+            return;
+        };
+        let Ok(held_eq) = held.result.as_ref() else { return };
+        if held_eq.hold.is_none() || !held_eq.stability.is_stable() {
+            return;
+        }
+        let (model, node) = (pull.model.clone(), pull.node);
+        let start = held_eq.positions();
+        begin(self, model, start, node);
+    }
 }

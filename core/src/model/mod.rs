@@ -5,17 +5,18 @@
 //! ids, every unstressed length resolved, every free degree of freedom known. Nothing here
 //! solves anything.
 
+mod error;
 mod project;
 mod save;
 mod title_block;
+mod validate;
 mod validated;
 
-pub use project::{
-    CaseDoc, FILE_EXTENSION, FORMAT_VERSION, LoadDoc, MemberDoc, MemberDocKind, NodeDoc, Project, ProjectError, Rest, UnitSystem,
-};
+pub use error::{Problem, ProjectError};
+pub use project::{CaseDoc, FILE_EXTENSION, FORMAT_VERSION, LoadDoc, MemberDoc, MemberDocKind, NodeDoc, Project, Rest, UnitSystem};
 pub use save::{BACKUP_SUFFIX, backup_path, save_atomic};
 pub use title_block::SheetInfo;
-pub use validated::{LoadCase, Member, Model, Node, Problem, Support};
+pub use validated::{LoadCase, Member, Model, Node, Support};
 
 /// 3-vector of f64 (m, N or m/s² depending on use).
 pub type Vec3 = nalgebra::Vector3<f64>;

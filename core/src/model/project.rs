@@ -4,11 +4,10 @@
 //! save → load → save gives the same bytes.
 
 use serde::{Deserialize, Serialize};
-use std::fmt;
 use std::path::Path;
 
+use super::error::{Problem, ProjectError};
 use super::title_block::SheetInfo;
-use super::validated::{Model, Problem};
 use crate::sizing::{MemberDesign, SizingDoc};
 
 /// Current version of the project file format. Version 2 added design data (`sizing`,
@@ -150,43 +149,6 @@ fn one() -> f64 {
     1.0
 }
 
-/// Why a project could not be read or used.
-#[derive(Debug, Clone, PartialEq, thiserror::Error)]
-#[non_exhaustive]
-pub enum ProjectError {
-    /// The file could not be read or written.
-    #[error("{path}: {message}")]
-    Io { path: String, message: String },
-    /// The text is not a well-formed project document.
-    #[error("line {line}, column {column}: {message}; {hint}")]
-    Syntax {
-        line: usize,
-        column: usize,
-        message: String,
-        hint: String,
-    },
-    /// Written by a newer Rigwright.
-    #[error("file format version {found} is newer than this Rigwright reads (up to {supported}); open it with a newer Rigwright")]
-    TooNew { found: u32, supported: u32 },
-    /// Well-formed, but describes a rig that cannot be analysed.
-    #[error("{}", ProblemList(problems))]
-    Invalid { problems: Vec<Problem> },
-}
-
-struct ProblemList<'a>(&'a [Problem]);
-
-impl fmt::Display for ProblemList<'_> {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        for (i, p) in self.0.iter().enumerate() {
-            if i > 0 {
-                writeln!(f)?;
-            }
-            write!(f, "{p}")?;
-        }
-        Ok(())
-    }
-}
-
 impl Project {
     /// An empty planar project.
     pub fn new(title: &str) -> Self {
@@ -285,18 +247,6 @@ impl Project {
             hint: "a project file is plain text; check that this is a .rig.ron file".to_string(),
         })?;
         Self::from_ron(&text)
-    }
-
-    /// Reads, parses and validates a file.
-    pub fn load_model(path: &Path) -> Result<(Self, Model), ProjectError> {
-        let project = Self::load(path)?;
-        let model = project.validate()?;
-        Ok((project, model))
-    }
-
-    /// Checks the document and builds the solver's model.
-    pub fn validate(&self) -> Result<Model, ProjectError> {
-        Model::from_project(self).map_err(|problems| ProjectError::Invalid { problems })
     }
 
     /// Names of the load cases (the implicit "gravity" case when none are given).

@@ -15,7 +15,8 @@ use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::sync::atomic::{AtomicU64, Ordering};
 
-use super::project::{Project, ProjectError};
+use super::error::ProjectError;
+use super::project::Project;
 
 /// Ending added to the file name of the previous version kept by [`save_atomic`].
 pub const BACKUP_SUFFIX: &str = ".bak";

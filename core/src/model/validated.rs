@@ -1,38 +1,11 @@
 //! The validated model: what the solvers borrow.
 
 use std::collections::HashMap;
-use std::fmt;
 
 use super::Vec3;
+use super::error::Problem;
 use super::project::{MemberDocKind, Project, Rest};
 use crate::element::MemberKind;
-
-/// One thing wrong with a project, naming the item and suggesting a fix.
-#[derive(Debug, Clone, PartialEq)]
-pub struct Problem {
-    /// The item at fault, e.g. "member `stay-3`".
-    pub item: String,
-    /// What is wrong.
-    pub problem: String,
-    /// How to fix it.
-    pub hint: String,
-}
-
-impl Problem {
-    pub fn new(item: impl Into<String>, problem: impl Into<String>, hint: impl Into<String>) -> Self {
-        Problem {
-            item: item.into(),
-            problem: problem.into(),
-            hint: hint.into(),
-        }
-    }
-}
-
-impl fmt::Display for Problem {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        write!(f, "{}: {}; {}", self.item, self.problem, self.hint)
-    }
-}
 
 /// Which translations of a node are held.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -338,7 +311,7 @@ impl Model {
             ));
         }
 
-        problems.extend(crate::sizing::design::design_problems(p));
+        problems.extend(crate::sizing::design_rules::design_problems(p));
 
         let mut cases = Vec::new();
         if p.cases.is_empty() {

@@ -9,7 +9,11 @@
 pub mod autosize;
 pub mod catalogue;
 pub mod check;
+mod check_report;
 pub mod design;
+pub mod design_rules;
+pub mod material;
+mod member_checks;
 pub mod rope;
 pub mod spring;
 pub mod sweep;
@@ -21,6 +25,7 @@ pub use check::{
     solve_cases_watched,
 };
 pub use design::{DesignFactors, MemberDesign, SizingDoc, SpringDesign, SpringEnds, StrutSection};
+pub use material::SpringMaterial;
 pub use rope::{Construction, Core, RopeSpec, minimum_breaking_force_kn};
-pub use spring::{SpringMaterial, SpringProperties, SpringReport, SpringRequirement, design_spring, helical_spring};
+pub use spring::{SpringProperties, SpringReport, SpringRequirement, design_spring, helical_spring};
 pub use sweep::{Output, Param, SweepResult, sweep, sweep_watched};

@@ -5,14 +5,24 @@
 //! The drawing is to a standard scale (1:1, 1:2, 1:2.5, 1:5 × 10ⁿ) at 100 % print size.
 //! Displacements may be magnified by a stated factor so that a stiff rig's deformation can be
 //! seen; dimensions always refer to the drawn geometry.
+//!
+//! This file draws; `scale.rs` chooses the scale, `marks.rs` makes the symbols and `labels.rs`
+//! keeps the labels clear of one another.
+
+mod labels;
+mod marks;
+mod scale;
 
 use rigwright_core::{MemberKind, Vec3};
 
-use super::content::Sheet;
-use super::fonts::{self, Weight};
-use super::format::Fmt;
-use super::page::{Align, Ink, Page, Paper, Pen, Style};
-use crate::gui::{Plane, RigView};
+use self::labels::{Placed, text_box};
+use self::marks::{arrow_head, at, dimension, guide_side, sub, support, unit, zigzag};
+use self::scale::{PT_PER_MM, bar_length, fonts_free_number, magnification, standard_scale};
+use crate::content::Sheet;
+use crate::fonts::{self, Weight};
+use crate::format::Fmt;
+use crate::page::{Align, Ink, Page, Paper, Pen, Style};
+use crate::plane::Plane;
 
 /// A rectangle on the page (pt, top left).
 #[derive(Debug, Clone, Copy)]
@@ -23,188 +33,19 @@ pub struct Area {
     pub h: f32,
 }
 
-/// Points per millimetre of paper.
-const PT_PER_MM: f64 = 72.0 / 25.4;
 /// Room kept free around the rig for labels, arrows and the dimensions (pt).
 const PAD: f32 = 30.0;
+
 /// Room kept free above and below the rig (pt).
 const PAD_Y: f32 = 18.0;
+
 /// Length of a load arrow (pt).
 const ARROW: f32 = 26.0;
-
-/// The smallest standard scale 1:N that fits `needed` (paper mm per model m needed ≥ …).
-fn standard_scale(mm_per_m: f64) -> f64 {
-    // 1:N puts 1000/N mm of paper on a metre.
-    let n_min = 1000.0 / mm_per_m;
-    let mut decade = 10f64.powf(n_min.log10().floor() - 1.0);
-    loop {
-        for m in [1.0, 2.0, 2.5, 5.0] {
-            let n = m * decade;
-            if n >= n_min * (1.0 - 1e-9) {
-                return n;
-            }
-        }
-        decade *= 10.0;
-    }
-}
-
-/// A round length for the scale bar, at most a fifth of `span` (m).
-fn bar_length(span: f64) -> f64 {
-    let target = span / 5.0;
-    let decade = 10f64.powf(target.log10().floor());
-    [1.0, 2.0, 5.0, 10.0]
-        .into_iter()
-        .map(|m| m * decade)
-        .rfind(|l| *l <= target * 1.01)
-        .unwrap_or(decade)
-}
-
-/// The magnification of displacements: the largest of 1, 2, 5, 10, … that keeps the largest
-/// displacement within 6 % of the rig's size.
-fn magnification(largest: f64, extent: f64) -> f64 {
-    if largest <= 0.0 || largest >= 0.06 * extent {
-        return 1.0;
-    }
-    let mut best = 1.0;
-    let mut decade = 1.0;
-    while decade < 1e6 {
-        for m in [1.0, 2.0, 5.0] {
-            if m * decade * largest <= 0.06 * extent {
-                best = m * decade;
-            }
-        }
-        decade *= 10.0;
-    }
-    best
-}
-
-fn sub(a: (f32, f32), b: (f32, f32)) -> (f32, f32) {
-    (a.0 - b.0, a.1 - b.1)
-}
-
-fn unit(v: (f32, f32)) -> (f32, f32) {
-    let n = (v.0 * v.0 + v.1 * v.1).sqrt();
-    if n < 1e-6 { (0.0, -1.0) } else { (v.0 / n, v.1 / n) }
-}
-
-fn at(p: (f32, f32), d: (f32, f32), t: f32) -> (f32, f32) {
-    (p.0 + d.0 * t, p.1 + d.1 * t)
-}
-
-/// Arrow head at `tip` pointing along `d` (unit).
-fn arrow_head(page: &mut Page, tip: (f32, f32), d: (f32, f32), size: f32, ink: Ink) {
-    let n = (-d.1, d.0);
-    let base = at(tip, d, -size);
-    page.path(vec![tip, at(base, n, size * 0.4), at(base, n, -size * 0.4)], true, None, Some(ink));
-}
-
-/// A zigzag between `a` and `b` for a spring (straight leads at both ends).
-fn zigzag(a: (f32, f32), b: (f32, f32)) -> Vec<(f32, f32)> {
-    let d = sub(b, a);
-    let len = (d.0 * d.0 + d.1 * d.1).sqrt();
-    if len < 8.0 {
-        return vec![a, b];
-    }
-    let e = (d.0 / len, d.1 / len);
-    let n = (-e.1, e.0);
-    let lead = (len * 0.2).min(12.0);
-    let body = len - 2.0 * lead;
-    let teeth = ((body / 4.0).floor() as usize).clamp(4, 14);
-    let amp = 3.0;
-    let mut pts = vec![a, at(a, e, lead)];
-    for k in 0..teeth {
-        let t = lead + body * (k as f32 + 0.5) / teeth as f32;
-        let side = if k % 2 == 0 { amp } else { -amp };
-        pts.push(at(at(a, e, t), n, side));
-    }
-    pts.push(at(a, e, len - lead));
-    pts.push(b);
-    pts
-}
-
-/// The side a support symbol is drawn on: a guide held along exactly one direction of the
-/// drawing plane sits on that direction's line (rollers running along the free direction),
-/// on the side of `away`; otherwise `away`, the side away from the members.
-fn guide_side(plane: Plane, fixed: [bool; 3], away: (f32, f32), anchor: bool) -> (f32, f32) {
-    if anchor {
-        return away;
-    }
-    let held: Vec<(f32, f32)> = (0..3)
-        .filter(|&a| fixed[a])
-        .map(|a| {
-            let mut e = Vec3::zeros();
-            e[a] = 1.0;
-            let q = plane.uv(&e);
-            // Page y runs down.
-            (q[0] as f32, -(q[1] as f32))
-        })
-        .filter(|q| q.0.abs() + q.1.abs() > 0.5)
-        .collect();
-    match held.as_slice() {
-        [f] if f.0 * away.0 + f.1 * away.1 < 0.0 => (-f.0, -f.1),
-        [f] => *f,
-        _ => away,
-    }
-}
-
-/// Support symbol at `p`: a triangle with its apex on the node, set on the side `u` away from
-/// the members; filled with a hatched ground line for an anchor, hollow on rollers for a
-/// guided support.
-fn support(page: &mut Page, p: (f32, f32), u: (f32, f32), anchor: bool) {
-    let n = (-u.1, u.0);
-    let base = at(p, u, 9.0);
-    let tri = vec![p, at(base, n, 5.5), at(base, n, -5.5)];
-    if anchor {
-        page.path(tri, true, Some(Pen::solid(0.6, Ink::Black)), Some(Ink::Mid));
-        let g = at(base, u, 0.5);
-        page.line(at(g, n, -8.0), at(g, n, 8.0), Pen::solid(0.8, Ink::Black));
-        for k in 0..5 {
-            let s = -7.0 + 3.5 * k as f32;
-            let from = at(g, n, s);
-            page.line(from, at(at(from, u, 3.5), n, -3.0), Pen::solid(0.4, Ink::Black));
-        }
-    } else {
-        page.path(tri, true, Some(Pen::solid(0.6, Ink::Black)), Some(Ink::White));
-        for s in [-3.0, 3.0] {
-            page.circle(at(at(base, u, 1.6), n, s), 1.5, Some(Pen::solid(0.5, Ink::Black)), Some(Ink::White));
-        }
-        let g = at(base, u, 3.4);
-        page.line(at(g, n, -8.0), at(g, n, 8.0), Pen::solid(0.8, Ink::Black));
-    }
-}
-
-/// A dimension line from `a` to `b` with slashed ticks and `label` beside it; `offset` is the
-/// side the text goes (unit).
-fn dimension(page: &mut Page, a: (f32, f32), b: (f32, f32), label: &str, vertical: bool) {
-    let pen = Pen::solid(0.4, Ink::Mid);
-    page.line(a, b, pen.clone());
-    for p in [a, b] {
-        page.line((p.0 - 2.5, p.1 + 2.5), (p.0 + 2.5, p.1 - 2.5), Pen::solid(0.7, Ink::Dark));
-    }
-    let mid = ((a.0 + b.0) / 2.0, (a.1 + b.1) / 2.0);
-    if vertical {
-        page.text(
-            (mid.0 - 4.0, mid.1 + 2.5),
-            Style::new(6.5, Weight::Regular, Ink::Dark),
-            Align::Right,
-            label,
-        );
-    } else {
-        page.text(
-            (mid.0, mid.1 + 9.0),
-            Style::new(6.5, Weight::Regular, Ink::Dark),
-            Align::Centre,
-            label,
-        );
-    }
-}
 
 /// Draws the rig into `area`, with its caption at the bottom.
 pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper) {
     let model = &sheet.model;
-    let mut view = RigView::default();
-    view.choose_plane(&sheet.project);
-    let plane = view.plane;
+    let plane = Plane::for_project(&sheet.project);
     let uv = |p: &Vec3| plane.uv(p);
     let eq = sheet.equilibrium();
     // Bounds of the drawn geometry, then of everything drawn.
@@ -606,77 +447,5 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
             Align::Left,
             &l,
         );
-    }
-}
-
-/// A text's box (x0, y0, x1, y1) on the page from its baseline point, size and alignment.
-fn text_box(at: (f32, f32), size: f32, align: Align, text: &str) -> (f32, f32, f32, f32) {
-    let w = fonts::width(text, size, Weight::Bold);
-    let x0 = match align {
-        Align::Left => at.0,
-        Align::Right => at.0 - w,
-        Align::Centre => at.0 - w / 2.0,
-    };
-    (x0, at.1 - size, x0 + w, at.1 + 0.25 * size)
-}
-
-/// Boxes of the labels placed so far on a drawing.
-#[derive(Default)]
-struct Placed(Vec<(f32, f32, f32, f32)>);
-
-impl Placed {
-    /// Keeps `b` and returns true when it overlaps no box kept before (a drawing holds at most a
-    /// few hundred labels, so a plain list does).
-    fn place(&mut self, b: (f32, f32, f32, f32)) -> bool {
-        let free = self.0.iter().all(|p| b.2 <= p.0 || p.2 <= b.0 || b.3 <= p.1 || p.3 <= b.1);
-        if free {
-            self.0.push(b);
-        }
-        free
-    }
-
-    /// Keeps `b` as something labels must keep off (a node, a support), overlapping or not.
-    fn block(&mut self, b: (f32, f32, f32, f32)) {
-        self.0.push(b);
-    }
-}
-
-/// "50" for 50.0, "2.5" for 2.5.
-fn fonts_free_number(v: f64) -> String {
-    if (v - v.round()).abs() < 1e-9 {
-        format!("{}", v.round() as i64)
-    } else {
-        format!("{v}")
-    }
-}
-
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn a_guide_sits_on_the_line_it_holds() {
-        // Held along x only, drawn in elevation: the rollers stand beside the node, on the
-        // members' far side; held along y: below or above; anchors and guides held only out of
-        // the plane keep the side away from the members.
-        let away = (-0.6, 0.8);
-        assert_eq!(guide_side(Plane::Elevation, [true, false, false], away, false), (-1.0, 0.0));
-        assert_eq!(guide_side(Plane::Elevation, [false, true, false], away, false), (0.0, 1.0));
-        assert_eq!(guide_side(Plane::Elevation, [false, false, true], away, false), away);
-        assert_eq!(guide_side(Plane::Elevation, [true, true, true], away, true), away);
-        // In plan, z runs down the page.
-        assert_eq!(guide_side(Plane::Plan, [false, false, true], (0.0, 1.0), false), (0.0, 1.0));
-    }
-
-    #[test]
-    fn scales_are_standard_and_fit() {
-        // 30 mm of paper per metre needed → 1:50 gives 20 mm (fits), 1:25 gives 40 (too big).
-        assert_eq!(standard_scale(30.0), 50.0);
-        assert_eq!(standard_scale(40.0), 25.0);
-        assert_eq!(standard_scale(1000.0), 1.0);
-        assert_eq!(bar_length(5.0), 1.0);
-        assert_eq!(bar_length(12.0), 2.0);
-        assert_eq!(magnification(0.001, 5.0), 200.0);
-        assert_eq!(magnification(1.0, 5.0), 1.0);
     }
 }

@@ -1,4 +1,5 @@
-//! Display units: SI or US customary, for every number shown and typed.
+//! Display units: SI or US customary, for every number shown and typed (in the app) or printed
+//! (on the Sheet).
 //!
 //! Responsible for converting between the SI values the core works in and the values the user
 //! sees, and for formatting a value with its unit. Not responsible for any mechanics.

@@ -18,6 +18,9 @@
 //! document came from, so it can also be opened by hand.
 //!
 //! Not responsible for saving the user's own file (see `RigApp::save_to`) or the settings.
+//! The question offering a copy found at start is in `offer.rs`.
+
+mod offer;
 
 use std::ffi::OsString;
 use std::fs::{File, TryLockError};
@@ -30,21 +33,28 @@ use rigwright_core::Project;
 use rigwright_core::model::{backup_path, save_atomic};
 
 use super::{Document, RigApp};
-use crate::sheet::civil_from_days;
+
+pub use offer::{discard, offer_modal, recover};
 
 /// The environment variable that overrides the data folder (tests, portable installs).
 pub const DATA_DIR_VAR: &str = "RIGWRIGHT_DATA_DIR";
+
 /// Name of the recovery copy in the data folder.
 pub const RECOVERY_FILE: &str = "recovery.rig.ron";
+
 /// Name a discarded recovery copy is kept under.
 pub const DISCARDED_FILE: &str = "discarded-recovery.rig.ron";
+
 /// Most windows that keep recovery copies at the same time.
 pub const SLOTS: usize = 8;
+
 /// Time between autosaves while there are unsaved changes.
 pub const DEFAULT_INTERVAL: Duration = Duration::from_secs(30);
 
 const HEADER: &str = "// Rigwright recovery copy: unsaved changes kept by autosave.\n";
+
 const SOURCE: &str = "// source: ";
+
 const NEVER_SAVED: &str = "(never saved)";
 
 /// The user's data folder for Rigwright: `$RIGWRIGHT_DATA_DIR` when set (empty: none, which
@@ -401,132 +411,6 @@ pub fn tick(app: &mut RigApp, ctx: &egui::Context) {
     }
 }
 
-/// The Recover / Discard question, while a copy from an earlier session waits.
-pub fn offer_modal(app: &mut RigApp, ctx: &egui::Context) {
-    let Some(offer) = app.recovery.offer.as_ref() else {
-        return;
-    };
-    let name = offer.name();
-    let when = offer.kept.map(describe_time).unwrap_or_else(|| "at an unknown time".into());
-    let mut answer = None;
-    egui::Modal::new(egui::Id::unique("recovery-offer")).show(ctx, |ui| {
-        ui.heading("Recover unsaved changes?");
-        ui.label(format!(
-            "Rigwright did not close cleanly last time. Unsaved changes to `{name}` were kept {when}."
-        ));
-        if let Some(s) = &offer.source {
-            ui.label(format!("Project file: {}", s.display()));
-        }
-        ui.label(format!("Recovery copy: {}", offer.file.display()));
-        if let Err(e) = &offer.project {
-            ui.colored_label(
-                ui.visuals().error_fg_color,
-                format!(
-                    "The copy cannot be read: {e}. Discard keeps it as {} for a look by hand.",
-                    discarded_path(&offer.file).display()
-                ),
-            );
-        }
-        ui.add_space(8.0);
-        ui.horizontal(|ui| {
-            let can = offer.project.is_ok();
-            if ui
-                .add_enabled(can, egui::Button::new("Recover"))
-                .on_hover_text("Open the recovered changes; save them to keep them")
-                .clicked()
-            {
-                answer = Some(true);
-            }
-            if ui
-                .button("Discard")
-                .on_hover_text(format!(
-                    "Keep the current project; the copy is kept once as {}",
-                    discarded_path(&offer.file).display()
-                ))
-                .clicked()
-            {
-                answer = Some(false);
-            }
-        });
-    });
-    match answer {
-        Some(true) => recover(app),
-        Some(false) => discard(app),
-        None => {}
-    }
-}
-
-/// Opens the offered copy as an unsaved document (the copy stays until it is saved).
-pub fn recover(app: &mut RigApp) {
-    let Some(offer) = app.recovery.offer.take() else { return };
-    let Ok(project) = offer.project else {
-        app.recovery.offer = Some(offer);
-        return;
-    };
-    let source = offer.source.filter(|p| p.parent().is_some_and(Path::exists));
-    // A copy of a document that was mid-edit may not be valid; open it as an edit then, so
-    // its problems are listed rather than refused.
-    let doc = match Document::open(project.clone(), source.clone()) {
-        Ok(mut d) => {
-            d.dirty = true;
-            d
-        }
-        Err(_) => {
-            let mut d = Document::empty();
-            d.edit(None, move |p| *p = project);
-            d.path = source;
-            d
-        }
-    };
-    app.replace_document(doc);
-    // The copy on disk is this session's now: kept until the document is saved.
-    app.recovery.on_disk = true;
-    app.message = Some((
-        format!("Recovered unsaved changes to `{}`; save to keep them", app.doc.name()),
-        false,
-    ));
-}
-
-/// Sets the offered copy aside (as [`DISCARDED_FILE`] for the first slot) and keeps the
-/// current project.
-pub fn discard(app: &mut RigApp) {
-    let Some(offer) = app.recovery.offer.take() else { return };
-    let aside = discarded_path(&offer.file);
-    match std::fs::rename(&offer.file, &aside) {
-        Ok(()) => {
-            let _ = std::fs::remove_file(backup_path(&offer.file));
-            app.message = Some((format!("Discarded the recovery copy (kept once as {})", aside.display()), false));
-        }
-        Err(e) => {
-            app.message = Some((
-                format!(
-                    "Could not set the recovery copy {} aside: {e}; remove it by hand if it is not needed",
-                    offer.file.display()
-                ),
-                true,
-            ))
-        }
-    }
-}
-
-/// "on 2025-03-04 at 10:22 UTC (5 min ago)".
-fn describe_time(t: SystemTime) -> String {
-    let Ok(since_epoch) = t.duration_since(SystemTime::UNIX_EPOCH) else {
-        return "at an unknown time".into();
-    };
-    let secs = since_epoch.as_secs();
-    let (y, m, d) = civil_from_days((secs / 86_400) as i64);
-    let (hh, mm) = ((secs % 86_400) / 3600, (secs % 3600) / 60);
-    let ago = match SystemTime::now().duration_since(t).map(|d| d.as_secs()) {
-        Ok(s) if s < 60 => "just now".to_string(),
-        Ok(s) if s < 3600 => format!("{} min ago", s / 60),
-        Ok(s) if s < 48 * 3600 => format!("{} h ago", s / 3600),
-        Ok(s) => format!("{} days ago", s / 86_400),
-        Err(_) => "in the future; check the clock".to_string(),
-    };
-    format!("on {y:04}-{m:02}-{d:02} at {hh:02}:{mm:02} UTC ({ago})")
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -565,14 +449,5 @@ mod tests {
         assert_eq!(source_of(&text), Some(PathBuf::from("/work/rigs/a.rig.ron")));
         assert_eq!(Project::from_ron(&text).unwrap(), p);
         assert_eq!(source_of(&recovery_text(&p, None)), None);
-    }
-
-    #[test]
-    fn days_since_1970_become_calendar_dates() {
-        // Checked against well-known dates (common practice): the epoch, a leap day, Y2K.
-        assert_eq!(civil_from_days(0), (1970, 1, 1));
-        assert_eq!(civil_from_days(11_016), (2000, 2, 29));
-        assert_eq!(civil_from_days(10_957), (2000, 1, 1));
-        assert_eq!(civil_from_days(-1), (1969, 12, 31));
     }
 }

@@ -1,7 +1,7 @@
 //! Numbers as the sheet prints them: in the project's unit system, each with its unit (in
 //! the cell or in the column heading).
 
-use crate::gui::units::{Quantity, Units, significant};
+use crate::units::{Quantity, Units, significant};
 
 const LBF: f64 = 4.448_221_615_260_5;
 const INCH: f64 = 0.0254;

@@ -4,13 +4,14 @@
 //! drawn and tabulated, the modes and the stiffness at marked nodes, the plain-language
 //! warnings and the traceability data. Not responsible for where anything goes on the page.
 
+use crate::date::today;
+use crate::units::Units;
+use crate::warnings::warnings;
 use rigwright_core::dynamics::{Modes, modes_watched};
 use rigwright_core::model::{SheetInfo, UnitSystem};
 use rigwright_core::sizing::{Catalogue, CheckReport, Status, check, project_catalogue, solve_cases_watched};
 use rigwright_core::{Equilibrium, Model, NodeStiffness, Project, Statics, Watch};
 use sha2::{Digest, Sha256};
-
-use crate::gui::units::Units;
 
 /// Lowest natural frequencies listed.
 pub const MODE_COUNT: usize = 6;
@@ -71,31 +72,6 @@ pub fn sha256_hex(bytes: &[u8]) -> String {
     Sha256::digest(bytes).iter().map(|b| format!("{b:02x}")).collect()
 }
 
-/// Today's date (UTC) as YYYY-MM-DD.
-pub fn today() -> String {
-    let secs = std::time::SystemTime::now()
-        .duration_since(std::time::UNIX_EPOCH)
-        .map(|d| d.as_secs())
-        .unwrap_or(0);
-    let (y, m, d) = civil_from_days((secs / 86_400) as i64);
-    format!("{y:04}-{m:02}-{d:02}")
-}
-
-/// Proleptic Gregorian date of a day count since 1970-01-01 (the era algorithm from
-/// H. Hinnant, "chrono-Compatible Low-Level Date Algorithms", from memory).
-pub(crate) fn civil_from_days(z: i64) -> (i64, u32, u32) {
-    let z = z + 719_468;
-    let era = z.div_euclid(146_097);
-    let doe = z.rem_euclid(146_097);
-    let yoe = (doe - doe / 1460 + doe / 36_524 - doe / 146_096) / 365;
-    let doy = doe - (365 * yoe + yoe / 4 - yoe / 100);
-    let mp = (5 * doy + 2) / 153;
-    let d = (doy - (153 * mp + 2) / 5 + 1) as u32;
-    let m = if mp < 10 { mp + 3 } else { mp - 9 } as u32;
-    let y = yoe + era * 400 + i64::from(m <= 2);
-    (y, m, d)
-}
-
 fn merge(base: &SheetInfo, over: &SheetInfo) -> SheetInfo {
     let pick = |a: &String, b: &String| if b.trim().is_empty() { a.clone() } else { b.clone() };
     let mut info = SheetInfo {
@@ -113,10 +89,6 @@ fn merge(base: &SheetInfo, over: &SheetInfo) -> SheetInfo {
     }
     info
 }
-
-/// A node moving more than this fraction of the rig's size (the diagonal of its drawn
-/// geometry) is pointed out among the warnings.
-const LARGE_MOVE: f64 = 0.25;
 
 /// What [`Sheet::build_watched`] says when it was stopped.
 pub const STOPPED: &str = "stopped before the sheet was made";
@@ -275,199 +247,9 @@ fn governing_case(model: &Model, report: &CheckReport) -> (usize, CaseChoice) {
     (first, CaseChoice::First)
 }
 
-/// Plain statements of what needs attention: cases without equilibrium, failing members,
-/// slack cables, members near their limit, unchecked members and the checks' own notes.
-fn warnings(model: &Model, report: &CheckReport, drawn: usize, units: Units) -> Vec<String> {
-    let mut out = Vec::new();
-    for c in &report.cases {
-        if let Some(e) = &c.error {
-            out.push(format!(
-                "Load case `{}` has NO EQUILIBRIUM: {e}. Nothing in this case is a result; its members are not checked in it.",
-                c.name
-            ));
-        }
-    }
-    // Failures, one statement per check and load case: "Members `a`, `b` FAIL their tension
-    // check in load case `x` (utilisation up to 130.4 %): …".
-    struct Failing<'a> {
-        check: &'a str,
-        case: &'a str,
-        ids: Vec<String>,
-        worst: Option<f64>,
-        note: &'a str,
-    }
-    let mut fails: Vec<Failing> = Vec::new();
-    for m in &report.members {
-        if m.status != Status::Fail {
-            continue;
-        }
-        let Some(line) = m.governing_line() else { continue };
-        match fails
-            .iter_mut()
-            .find(|f| f.check == line.check && f.case == line.case && f.note == line.note)
-        {
-            Some(f) => {
-                f.ids.push(m.id.clone());
-                f.worst = match (f.worst, line.utilisation) {
-                    (Some(a), Some(b)) => Some(a.max(b)),
-                    (a, b) => a.or(b),
-                };
-            }
-            None => fails.push(Failing {
-                check: line.check,
-                case: &line.case,
-                ids: vec![m.id.clone()],
-                worst: line.utilisation,
-                note: &line.note,
-            }),
-        }
-    }
-    for Failing {
-        check,
-        case,
-        ids,
-        worst: u,
-        note,
-    } in fails
-    {
-        let case = if case.is_empty() {
-            String::new()
-        } else {
-            format!(" in load case `{case}`")
-        };
-        let text = if ids.len() == 1 {
-            let u = u.map(|u| format!(", utilisation {:.1} %", u * 100.0)).unwrap_or_default();
-            format!("Member `{}` FAILS its {check} check{case}{u}: {note}.", ids[0])
-        } else {
-            let u = u.map(|u| format!(" (utilisation up to {:.1} %)", u * 100.0)).unwrap_or_default();
-            format!(
-                "{} FAIL their {check} check{case}{u}: {note}.",
-                members_phrase(&ids, report.members.len())
-            )
-        };
-        out.push(text);
-    }
-    for (ci, c) in report.cases.iter().enumerate() {
-        let Some(eq) = &c.equilibrium else { continue };
-        let slack: Vec<String> = eq.members.iter().filter(|r| r.slack).map(|r| format!("`{}`", r.id)).collect();
-        if !slack.is_empty() {
-            let drawn = if ci == drawn { " (dashed on the drawing)" } else { "" };
-            out.push(format!(
-                "SLACK in load case `{}`: cable(s) {} carry no tension{drawn}.",
-                c.name,
-                slack.join(", ")
-            ));
-        }
-    }
-    // Displacements large against the rig's size: a result, but one to look at.
-    let size = model.extent();
-    for c in &report.cases {
-        let Some(eq) = &c.equilibrium else { continue };
-        let Some((i, d)) = eq
-            .nodes
-            .iter()
-            .map(|n| n.displacement.norm())
-            .enumerate()
-            .max_by(|a, b| a.1.total_cmp(&b.1))
-        else {
-            continue;
-        };
-        if d > LARGE_MOVE * size {
-            out.push(format!(
-                "Large displacement in load case `{}`: node `{}` moves {}, {:.0} % of the rig's size; check clearances and that this shape is intended.",
-                c.name,
-                model.nodes[i].id,
-                units.show(crate::gui::units::Quantity::Length, d),
-                100.0 * d / size
-            ));
-        }
-    }
-    let with = |status: Status| -> String {
-        let ids: Vec<String> = report.members.iter().filter(|m| m.status == status).map(|m| m.id.clone()).collect();
-        id_list(&ids, report.members.len())
-    };
-    let near = with(Status::Near);
-    if !near.is_empty() {
-        out.push(format!(
-            "Near limit (utilisation above {:.0} %): {near}.",
-            report.near_limit * 100.0
-        ));
-    }
-    let unchecked = with(Status::NotChecked);
-    if !unchecked.is_empty() {
-        out.push(format!(
-            "Not checked (no catalogue entry, breaking force, spring design or section given): {unchecked}."
-        ));
-    }
-    // The same note on many members (a catalogue change, say) is one line naming them all.
-    let mut notes: Vec<(&str, Vec<String>)> = Vec::new();
-    for m in &report.members {
-        for note in &m.notes {
-            // "no catalogue entry …" notes of unchecked members are in the list above.
-            if m.status == Status::NotChecked && note.starts_with("no ") {
-                continue;
-            }
-            match notes.iter_mut().find(|(n, _)| *n == note.as_str()) {
-                Some((_, ids)) => ids.push(m.id.clone()),
-                None => notes.push((note, vec![m.id.clone()])),
-            }
-        }
-    }
-    for (note, ids) in notes {
-        out.push(format!("{}: {note}.", members_phrase(&ids, report.members.len())));
-    }
-    out
-}
-
-/// The subject of a statement about members: "Member `a`", "Members `a`, `b`", "All N
-/// members".
-fn members_phrase(ids: &[String], members: usize) -> String {
-    let list = id_list(ids, members);
-    if list.starts_with("all ") {
-        format!("A{}", &list[1..])
-    } else if ids.len() == 1 {
-        format!("Member {list}")
-    } else {
-        format!("Members {list}")
-    }
-}
-
-/// Member ids for a statement: all of them, or "all N members", or the first ten and a count.
-pub(crate) fn id_list(ids: &[String], members: usize) -> String {
-    let quoted: Vec<String> = ids.iter().map(|id| format!("`{id}`")).collect();
-    match quoted.len() {
-        n if n == members && n > 3 => format!("all {n} members"),
-        n if n > 12 => format!("{} and {} more", quoted[..10].join(", "), n - 10),
-        _ => quoted.join(", "),
-    }
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn long_lists_of_members_are_shortened() {
-        let ids: Vec<String> = (1..=14).map(|i| format!("c{i}")).collect();
-        assert_eq!(id_list(&ids[..2], 20), "`c1`, `c2`");
-        assert_eq!(id_list(&ids, 14), "all 14 members");
-        assert_eq!(members_phrase(&ids, 14), "All 14 members");
-        assert_eq!(members_phrase(&ids[..1], 14), "Member `c1`");
-        assert_eq!(members_phrase(&ids[..2], 14), "Members `c1`, `c2`");
-        assert_eq!(
-            id_list(&ids, 20),
-            "`c1`, `c2`, `c3`, `c4`, `c5`, `c6`, `c7`, `c8`, `c9`, `c10` and 4 more"
-        );
-    }
-
-    #[test]
-    fn day_counts_map_to_known_dates() {
-        // 1970-01-01 is day 0; 2000-03-01 is day 11 017; 2024-02-29 is day 19 782 (counted
-        // by hand: 30 years with 7 leap days, then 54 years with 13).
-        assert_eq!(civil_from_days(0), (1970, 1, 1));
-        assert_eq!(civil_from_days(11_017), (2000, 3, 1));
-        assert_eq!(civil_from_days(19_782), (2024, 2, 29));
-    }
 
     #[test]
     fn sha256_of_abc_is_the_published_test_vector() {
