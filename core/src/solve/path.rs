@@ -346,9 +346,10 @@ impl Statics<'_> {
         })
     }
 
-    /// Follows the load from the stable unloaded state `start` (displacements, with its
-    /// Newton result `at_start`) to the full load.
-    pub(super) fn load_path(&self, start: Vec<Vec3>, at_start: Converged, load: &[Vec3], total: &mut usize) -> PathEnd {
+    /// Follows the load from the stable state `start` at load factor `from` (the unloaded
+    /// state, or a small load for a rig that is a mechanism unloaded; with its Newton result
+    /// `at_start`) to the full load.
+    pub(super) fn load_path(&self, start: Vec<Vec3>, at_start: Converged, from: f64, load: &[Vec3], total: &mut usize) -> PathEnd {
         let sys = &self.system;
         let model = self.model;
         let f = sys.gather(load);
@@ -361,8 +362,8 @@ impl Statics<'_> {
         let (mut t, mut c) = self.compliance(factor, &f);
         let mut u = start;
         let mut state = at_start;
-        let mut lambda = 0.0;
-        let mut step: f64 = 1.0;
+        let mut lambda = from;
+        let mut step: f64 = 1.0 - from;
         let mut steps = 0;
         let mut last_residual = state.residual;
         while lambda < 1.0 {
@@ -380,7 +381,7 @@ impl Statics<'_> {
             // The tangent predictor overshoots a stiffening rig; the first attempt at the whole
             // load starts from the unloaded state itself, later steps from the predictor.
             let mut trial = u.clone();
-            if steps > 0 || dl < 1.0 {
+            if steps > 0 || dl < 1.0 - from {
                 sys.add_scaled(&mut trial, &t, dl);
             }
             let outcome = self.newton(&mut trial, load, target, Mode::Local { strict: true }, STEP_ITERATIONS, total);

@@ -106,14 +106,14 @@ impl Statics<'_> {
 }
 
 impl Statics<'_> {
-    /// Paying out: when cables are slack in the drawn geometry (a chain drawn straight, a net
+    /// Paying out (under `lambda` × `load`): when cables are slack in the drawn geometry (a chain drawn straight, a net
     /// drawn flat with its cables longer than drawn), the rig is first solved with those cables
     /// installed tight — shortened to `(1 − δ)` of their drawn length, so it is a taut,
     /// stable net — and their unstressed lengths are then let out step by step to the real
     /// ones, each step a Newton solve from the last (a continuation in the unstressed lengths,
     /// as a rigger pays out rope). Returns the displacements at the real lengths, or `None`
-    /// when no cable is slack or a step cannot be made.
-    pub(super) fn pay_out(&self, start: &[Vec3], load: &[Vec3], total: &mut usize) -> Option<Vec<Vec3>> {
+    /// when no cable is slack, a step cannot be made or the iterations reach `cap` in all.
+    pub(super) fn pay_out(&self, start: &[Vec3], load: &[Vec3], lambda: f64, cap: usize, total: &mut usize) -> Option<Vec<Vec3>> {
         use super::newton::Mode;
         use crate::element::MemberKind;
         let model = self.model;
@@ -147,7 +147,7 @@ impl Statics<'_> {
         let mut dt: f64 = 0.05;
         let mut first = true;
         while t < 1.0 {
-            if self.cancelled() || *total >= self.settings.max_iterations {
+            if self.cancelled() || *total >= cap {
                 return None;
             }
             let next = if first { 0.0 } else { (t + dt).min(1.0) };
@@ -163,7 +163,7 @@ impl Statics<'_> {
                 }
             }
             let before = *total;
-            let ok = s.newton(&mut trial, load, 1.0, Mode::Local { strict: false }, 25, total).is_ok();
+            let ok = s.newton(&mut trial, load, lambda, Mode::Local { strict: false }, 25, total).is_ok();
             let used = *total - before;
             if ok {
                 if !first {

@@ -95,7 +95,11 @@ pub struct Hold {
 pub enum Route {
     /// Followed the load from the unloaded (pretension-only) equilibrium to the full load in
     /// load steps, every state on the way stable: the state the rig reaches as it is loaded.
-    LoadPath,
+    /// `from` is the load factor the path starts at: 0, or a small load (1e-3) when the
+    /// unloaded rig is a mechanism that the first bit of load engages (a node hanging on
+    /// unstressed cables), its state there found by energy minimisation from the drawn
+    /// geometry.
+    LoadPath { from: f64 },
     /// Continued from a nearby equilibrium the caller gave (a drag, a Sweep, a Pull): Newton
     /// converged from it at once, so it is the same branch as that state.
     Nearby,
@@ -120,7 +124,7 @@ impl Route {
     /// One sentence for users, or `None` for the plain load path.
     pub fn describe(&self) -> Option<String> {
         match self {
-            Route::LoadPath => None,
+            Route::LoadPath { .. } => None,
             Route::Nearby => Some("continued from the nearby equilibrium shown before".into()),
             Route::GlobalStart => Some(
                 "the unloaded rig is a mechanism, so this equilibrium was found by energy minimisation from the drawn geometry under the full load"

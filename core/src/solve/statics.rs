@@ -149,6 +149,14 @@ pub struct Statics<'m> {
     cancel: Option<Arc<AtomicBool>>,
 }
 
+/// Load factor at which the load path starts when the unloaded rig is a mechanism: small
+/// enough to be the start of the loading, large enough that the members it engages carry
+/// forces well above round-off.
+const ENGAGING_LOAD: f64 = 1e-3;
+/// Newton iterations the start at the engaging load may take before the full load is tried
+/// at once instead (a slack chain, say, is easier to solve under its full weight).
+const ENGAGING_BUDGET: usize = 150;
+
 /// Work done to reach an equilibrium.
 struct Work {
     iterations: usize,
@@ -305,51 +313,99 @@ impl<'m> Statics<'m> {
             }
         }
 
-        // 2. The unloaded equilibrium, then the load path.
+        // 2. The unloaded equilibrium, then the load path. When the unloaded rig is a
+        //    mechanism (a node hanging on unstressed cables can drift) the path starts at a
+        //    small load instead, from the state the globalised methods reach under it.
         let mut u = start.clone();
-        match self.newton(&mut u, &load, 0.0, Mode::Local { strict: false }, 60, &mut iterations) {
-            Ok(c) if c.definiteness == Definiteness::Positive => {
-                match self.load_path(u, c, &load, &mut iterations) {
-                    PathEnd::Reached { u, converged, steps } => {
-                        let work = Work {
-                            iterations,
-                            steps,
-                            route: Route::LoadPath,
-                        };
-                        Ok(self.finish(case, u, &load, converged, work, hold))
-                    }
-                    PathEnd::Critical(critical) => {
-                        if self.settings.follow {
-                            self.follow(case, critical, &load, hold, &mut iterations)
-                        } else {
-                            Err(self.critical_error(&critical))
-                        }
-                    }
-                    PathEnd::Stuck { load_factor, residual } => {
-                        // No critical point seen: the global method may still find the state.
-                        self.global(case, &start, &load, hold, &mut iterations).map_err(|e| match e {
-                            SolveError::NotConverged { .. } => SolveError::NotConverged {
-                                iterations,
-                                residual,
-                                load_factor,
-                            },
-                            other => other,
-                        })
-                    }
-                    PathEnd::Runaway { node, direction } => Err(self.mechanism(node, direction)),
-                    PathEnd::Cancelled => Err(cancelled(iterations)),
+        let (u, c, from) = match self.newton(&mut u, &load, 0.0, Mode::Local { strict: false }, 60, &mut iterations) {
+            Ok(c) if c.definiteness == Definiteness::Positive => (u, c, 0.0),
+            Err(NewtonFail::Cancelled) => return Err(cancelled(iterations)),
+            _ => match self.reach(&start, &load, ENGAGING_LOAD, false, ENGAGING_BUDGET, &mut iterations) {
+                Ok((u, c)) if c.definiteness == Definiteness::Positive => (u, c, ENGAGING_LOAD),
+                Err(NewtonFail::Cancelled) => return Err(cancelled(iterations)),
+                // 3. Not even a small load gives a stable state: the full load at once.
+                _ => return self.global(case, &start, &load, hold, &mut iterations),
+            },
+        };
+        match self.load_path(u, c, from, &load, &mut iterations) {
+            PathEnd::Reached { u, converged, steps } => {
+                let work = Work {
+                    iterations,
+                    steps,
+                    route: Route::LoadPath { from },
+                };
+                Ok(self.finish(case, u, &load, converged, work, hold))
+            }
+            PathEnd::Critical(critical) => {
+                if self.settings.follow {
+                    self.follow(case, critical, &load, hold, &mut iterations)
+                } else {
+                    Err(self.critical_error(&critical))
                 }
             }
-            Err(NewtonFail::Cancelled) => Err(cancelled(iterations)),
-            // 3. No stable unloaded state: the unloaded rig is a mechanism.
-            _ => self.global(case, &start, &load, hold, &mut iterations),
+            PathEnd::Stuck { load_factor, residual } => {
+                // No critical point seen: the global method may still find the state.
+                self.global(case, &start, &load, hold, &mut iterations).map_err(|e| match e {
+                    SolveError::NotConverged { .. } => SolveError::NotConverged {
+                        iterations,
+                        residual,
+                        load_factor,
+                    },
+                    other => other,
+                })
+            }
+            PathEnd::Runaway { node, direction } => Err(self.mechanism(node, direction)),
+            PathEnd::Cancelled => Err(cancelled(iterations)),
         }
     }
 
-    /// The full load at once from `start`: the trust-region method, and where it makes slow
-    /// progress (a quadratic model is poor far from the answer, with many members switching
-    /// between slack and taut), dynamic relaxation to bring the rig close, then the
-    /// trust-region method again to finish.
+    /// An equilibrium under `lambda` × `load` reached from `start` by the globalised methods:
+    /// the trust-region method; where it makes slow progress (a quadratic model is poor far
+    /// from the answer, with many members switching between slack and taut), paying out the
+    /// slack cables from a tight start, or dynamic relaxation; then the trust-region method
+    /// again to finish. With `escape`, a saddle or maximum found is left for a minimum. At most
+    /// `budget` Newton iterations (dynamic relaxation only with at least half the solver's).
+    fn reach(
+        &self,
+        start: &[Vec3],
+        load: &[Vec3],
+        lambda: f64,
+        escape: bool,
+        budget: usize,
+        iterations: &mut usize,
+    ) -> Result<(Vec<Vec3>, Converged), NewtonFail> {
+        let mut u = start.to_vec();
+        let cap = (*iterations + budget).min(self.settings.max_iterations);
+        let remaining = |done: usize| cap.saturating_sub(done);
+        let mut outcome = self.newton(
+            &mut u,
+            load,
+            lambda,
+            Mode::Global { escape },
+            remaining(*iterations).min(60),
+            iterations,
+        );
+        if let Err(NewtonFail::Stalled { .. }) = outcome
+            && let Some(paid) = self.pay_out(start, load, lambda, cap, iterations)
+        {
+            u = paid;
+            outcome = self.newton(&mut u, load, lambda, Mode::Global { escape }, remaining(*iterations), iterations);
+        }
+        if let Err(NewtonFail::Stalled { .. }) = outcome
+            && budget >= self.settings.max_iterations / 2
+        {
+            let budget = (2e8 / (self.model.members.len() + 1) as f64).clamp(2e4, 5e5) as usize;
+            match self.relax(&mut u, load, lambda, 1e-4, budget) {
+                Relaxed::Runaway { node, direction } => return Err(NewtonFail::Runaway { node, direction }),
+                Relaxed::Cancelled => return Err(NewtonFail::Cancelled),
+                Relaxed::Close | Relaxed::Budget => {}
+            }
+            outcome = self.newton(&mut u, load, lambda, Mode::Global { escape }, remaining(*iterations), iterations);
+        }
+        outcome.map(|c| (u, c))
+    }
+
+    /// The full load at once from `start` by the globalised methods ([`Statics::reach`]).
     fn global(
         &self,
         case: usize,
@@ -358,34 +414,10 @@ impl<'m> Statics<'m> {
         hold: Option<(usize, Vec3)>,
         iterations: &mut usize,
     ) -> Result<Equilibrium, SolveError> {
-        let mut u = start.to_vec();
-        let escape = self.settings.follow;
-        let remaining = |done: usize| self.settings.max_iterations.saturating_sub(done);
-        let mut outcome = self.newton(
-            &mut u,
-            load,
-            1.0,
-            Mode::Global { escape },
-            remaining(*iterations).min(60),
-            iterations,
-        );
-        if let Err(NewtonFail::Stalled { .. }) = outcome
-            && let Some(paid) = self.pay_out(start, load, iterations)
-        {
-            u = paid;
-            outcome = self.newton(&mut u, load, 1.0, Mode::Global { escape }, remaining(*iterations), iterations);
-        }
-        if let Err(NewtonFail::Stalled { .. }) = outcome {
-            let budget = (2e8 / (self.model.members.len() + 1) as f64).clamp(2e4, 5e5) as usize;
-            match self.relax(&mut u, load, 1.0, 1e-4, budget) {
-                Relaxed::Runaway { node, direction } => return Err(self.mechanism(node, direction)),
-                Relaxed::Cancelled => return Err(SolveError::Cancelled { iterations: *iterations }),
-                Relaxed::Close | Relaxed::Budget => {}
-            }
-            outcome = self.newton(&mut u, load, 1.0, Mode::Global { escape }, remaining(*iterations), iterations);
-        }
+        let budget = self.settings.max_iterations.saturating_sub(*iterations);
+        let outcome = self.reach(start, load, 1.0, self.settings.follow, budget, iterations);
         match outcome {
-            Ok(c) => {
+            Ok((u, c)) => {
                 let route = if c.escaped && c.definiteness == Definiteness::Positive {
                     Route::Followed {
                         critical: None,
