@@ -472,7 +472,7 @@ fn importing_a_parts_file_adds_its_parts_and_a_bad_one_changes_nothing() {
 #[track_caller]
 fn show_tab(h: &mut Harness<'static, RigApp>, tab: ReadoutTab) {
     for _ in 0..10 {
-        h.get_by_label(&format!("{tab:?}")).click();
+        h.get_by_label(tab.label()).click();
         h.step();
         if h.state().readout_tab == tab {
             return;
@@ -717,4 +717,37 @@ fn title_block_and_marked_nodes_edited_in_the_app_reach_the_sheet() {
     assert_eq!(sheet.stiffness.len(), 1);
     assert_eq!(sheet.stiffness[0].0, "sign");
     assert!(sheet.stiffness[0].1.is_ok());
+}
+
+/// A shallow truss loaded to twice its limit (closed form 38.10872 N, see the verification
+/// suite): the app shows no answer and names the limit point; the Load path tab traces the path
+/// through it; ticking "Follow past limit points" shows the snapped-through state with a note
+/// that it lies on another branch (issue 14).
+#[test]
+fn a_limit_point_is_shown_as_such_and_followed_only_when_asked() {
+    let mut h = harness();
+    let path = std::env::temp_dir().join(format!("rigwright-ui-truss-{}.rig.ron", std::process::id()));
+    std::fs::write(
+        &path,
+        r#"(version: 2, planar: true, gravity: (0.0, 0.0, 0.0), nodes: [(id: "L", at: (-1.0, 0.0, 0.0), fixed: (true, true, true)), (id: "R", at: (1.0, 0.0, 0.0), fixed: (true, true, true)), (id: "C", at: (0.0, 0.1, 0.0), mass: 1.0)], members: [(id: "b1", ends: ("L", "C"), kind: Strut(ea: 100000.0, rest: AsDrawn)), (id: "b2", ends: ("R", "C"), kind: Strut(ea: 100000.0, rest: AsDrawn))], cases: [(name: "2x", loads: [(node: "C", force: (0.0, -76.2, 0.0))])])"#,
+    )
+    .unwrap();
+    h.state_mut().queue(Command::Open(path.clone()));
+    h.run_steps(3);
+    assert!(h.state().answer().is_none(), "no answer past a limit point");
+    let lambda = h.state().critical().expect("the limit point is known");
+    assert!((lambda * 76.2 - 38.10872).abs() < 1e-4, "{lambda}");
+    assert!(h.state().diagnostic().unwrap().contains("limit point at load factor 0.500114"));
+    show_tab(&mut h, ReadoutTab::Path);
+    h.get_by_label("Trace the load path at node C").click();
+    h.run_steps(2);
+    let trace = h.state().path.as_ref().unwrap().result.as_ref().unwrap().as_ref().unwrap().clone();
+    assert_eq!(trace.critical[0].kind, "limit point");
+    assert!(trace.reached && trace.points.iter().any(|p| !p.stable));
+    h.get_by_label("Follow past limit points").click();
+    h.run_steps(3);
+    let a = h.state().answer().expect("followed: an answer on another branch");
+    assert!(-a.eq.nodes[2].displacement.y > 0.2, "snapped through");
+    assert!(h.state().route_note().unwrap().contains("another branch"));
+    std::fs::remove_file(path).ok();
 }

@@ -26,6 +26,6 @@ pub mod watch;
 pub use element::{MemberKind, MemberState};
 pub use model::{Axis, FILE_EXTENSION, FORMAT_VERSION, Member, Model, Node, Problem, Project, ProjectError, Rest, Support, Vec3};
 pub use solve::{
-    CriticalKind, Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, Route, SolveError, SolveSettings, Stability, Statics,
+    CriticalKind, Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, Route, SolveError, SolveSettings, Stability, Statics, Warm,
 };
 pub use watch::Watch;

@@ -70,12 +70,12 @@ fn a_held_node_needs_the_force_that_closes_the_balance_and_it_grows_with_the_pul
     let sign = m.node_index("sign").unwrap();
     let statics = Statics::holding(&m, sign);
     let start = free.nodes[sign].position;
-    let mut warm = free.positions();
+    let mut warm = rigwright_core::Warm::from(&free);
     let mut last = 0.0;
     for step in 1..=4 {
         let at = start + Vec3::new(0.0, -0.01 * step as f64, 0.0);
         let eq = statics.solve_held(0, at, Some(&warm)).unwrap();
-        warm = eq.positions();
+        warm = (&eq).into();
         let hold = eq.hold.clone().unwrap();
         let loads: Vec3 = m.case_forces(0).iter().sum();
         let reactions: Vec3 = eq.nodes.iter().filter_map(|n| n.reaction).sum();

@@ -196,7 +196,7 @@ fn a_warm_start_never_puts_a_moved_anchor_back() {
     moved.nodes.iter_mut().find(|n| n.id == "wall-right").unwrap().at.0 = 5.5;
     let m = model(&moved);
     let statics = Statics::new(&m);
-    let warm = statics.solve(0, Some(&old.positions())).unwrap();
+    let warm = statics.solve(0, Some(&(&old).into())).unwrap();
     let cold = statics.solve(0, None).unwrap();
     check_stable_answer(&m, 0, &warm).unwrap();
     let right = m.node_index("wall-right").unwrap();

@@ -18,7 +18,7 @@ pub mod date;
 mod drawing;
 pub mod export;
 pub mod fonts;
-mod format;
+pub mod format;
 mod layout;
 pub mod page;
 pub mod plane;

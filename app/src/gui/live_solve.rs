@@ -4,7 +4,7 @@
 
 use std::sync::Arc;
 
-use rigwright_core::{Model, Vec3};
+use rigwright_core::{Model, Vec3, Warm};
 
 use super::{RigApp, Selection, SolveOutcome, SolveRequest};
 
@@ -15,6 +15,7 @@ pub(super) struct RequestKey {
     case: usize,
     hold: Option<(usize, [u64; 3])>,
     stiffness_at: Option<usize>,
+    follow: bool,
 }
 
 impl RigApp {
@@ -50,6 +51,7 @@ impl RigApp {
             case,
             hold: hold.map(|(n, p)| (n, [p.x.to_bits(), p.y.to_bits(), p.z.to_bits()])),
             stiffness_at,
+            follow: self.follow,
         };
         if self.requested.as_ref() == Some(&key) {
             return;
@@ -60,7 +62,7 @@ impl RigApp {
             .as_ref()
             .filter(|s| s.model.nodes.len() == model.nodes.len())
             .and_then(|s| s.result.as_ref().ok())
-            .map(|eq| eq.positions());
+            .map(Warm::from);
         let request = SolveRequest {
             generation: 0,
             model,
@@ -68,6 +70,7 @@ impl RigApp {
             warm,
             hold,
             stiffness_at,
+            follow: self.follow,
         };
         if let Some(o) = self.solver.submit(request) {
             self.take_outcome(o);

@@ -20,6 +20,7 @@ mod live_solve;
 mod menus;
 mod modes;
 mod palette;
+mod path;
 mod pluck;
 mod properties;
 mod pull;
@@ -102,6 +103,11 @@ pub struct RigApp {
     pub task: Option<task::Task>,
     /// Start a Pluck when a pulled node is let go.
     pub pluck_on_release: bool,
+    /// Follow the rig past a limit point or bifurcation to the state it snaps to. Asked for
+    /// each session (never saved): by default a critical point is reported, not passed.
+    pub follow: bool,
+    /// The traced load path (Path tab).
+    pub path: Option<path::PathState>,
     /// Checks, Sweep and the spring designer.
     pub sizing: sizing::SizingState,
     /// A message for the status bar: (text, is an error).
@@ -166,6 +172,8 @@ impl RigApp {
             pluck_job: None,
             task: None,
             pluck_on_release: true,
+            follow: false,
+            path: None,
             message: None,
             show_about: false,
             show_help: false,
@@ -218,6 +226,19 @@ impl RigApp {
             Ok(eq) if !eq.stability.is_stable() => Some(format!("Not a usable equilibrium — {}", eq.stability.describe())),
             Ok(_) => None,
         }
+    }
+
+    /// How the answer shown was reached, when that is not the plain load path (followed past
+    /// a limit point, or found from the drawn geometry because the unloaded rig is a
+    /// mechanism): one sentence for a banner.
+    pub fn route_note(&self) -> Option<String> {
+        self.answer()?.eq.route.describe()
+    }
+
+    /// Load factor of the critical point that stopped the last solve, if that is why there is
+    /// no answer (the Follow choice is then offered).
+    pub fn critical(&self) -> Option<f64> {
+        self.solved.as_ref()?.critical
     }
 
     /// Screen position of a model point in the last drawn Rig view (for tests and tools).

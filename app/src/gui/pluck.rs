@@ -10,7 +10,7 @@ use std::sync::Arc;
 use std::time::Instant;
 
 use rigwright_core::dynamics::{Motion, MotionSettings, modes_watched, spectrum::spectrum};
-use rigwright_core::{Equilibrium, Model, Statics, Vec3, Watch};
+use rigwright_core::{Equilibrium, Model, Statics, Vec3, Warm, Watch};
 
 use super::RigApp;
 use super::background::{BACKGROUND_DOF, Background, free_dofs, model_key};
@@ -144,19 +144,19 @@ pub type PluckJob = Background<(usize, usize), Result<PluckSession, String>>;
 
 /// Prepares a Pluck released from `start` (the held shape of a Pull of `node`): the
 /// equilibrium it vibrates about, found from the held shape, then the session.
-pub fn prepare(model: Arc<Model>, case: usize, start: Vec<Vec3>, node: usize, watch: &Watch) -> Result<PluckSession, String> {
+pub fn prepare(model: Arc<Model>, case: usize, start: Warm, node: usize, watch: &Watch) -> Result<PluckSession, String> {
     let statics = Statics::new(&model).cancel_with(watch.flag());
     let about = match statics.solve(case, Some(&start)) {
         Ok(eq) if eq.stability.is_stable() => eq,
         Ok(eq) => return Err(eq.stability.describe()),
         Err(e) => return Err(e.to_string()),
     };
-    PluckSession::start(model, case, &about, start, node, watch)
+    PluckSession::start(model, case, &about, start.positions, node, watch)
 }
 
 /// Starts a Pluck: at once on a small rig, on another thread on a large one (the Pluck tab
 /// shows it being prepared, with a Cancel button).
-pub fn begin(app: &mut RigApp, model: Arc<Model>, start: Vec<Vec3>, node: usize) {
+pub fn begin(app: &mut RigApp, model: Arc<Model>, start: Warm, node: usize) {
     let case = app.case;
     app.pluck = None;
     app.pluck_job = None;
@@ -235,7 +235,7 @@ impl RigApp {
             return;
         }
         let (model, node) = (pull.model.clone(), pull.node);
-        let start = held_eq.positions();
+        let start = Warm::from(held_eq);
         begin(self, model, start, node);
     }
 }

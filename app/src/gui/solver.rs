@@ -9,7 +9,7 @@ use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::mpsc::{Receiver, Sender, channel};
 use std::time::{Duration, Instant};
 
-use rigwright_core::{Equilibrium, Model, NodeStiffness, Statics, Vec3};
+use rigwright_core::{Equilibrium, Model, NodeStiffness, Statics, Vec3, Warm};
 
 /// Rigs with at most this many free degrees of freedom are solved inline (a few milliseconds).
 pub const INLINE_DOFS: usize = 400;
@@ -21,12 +21,15 @@ pub struct SolveRequest {
     pub generation: u64,
     pub model: Arc<Model>,
     pub case: usize,
-    /// Node positions of a nearby equilibrium of the same model (warm start).
-    pub warm: Option<Vec<Vec3>>,
+    /// A nearby equilibrium of the same or a slightly edited model (warm start).
+    pub warm: Option<Warm>,
     /// Hold this node at this position (Pull).
     pub hold: Option<(usize, Vec3)>,
     /// Also condense the tangent stiffness to this node (unheld solves only).
     pub stiffness_at: Option<usize>,
+    /// Follow the rig past a limit point or bifurcation to where it snaps (asked for
+    /// explicitly; off by default).
+    pub follow: bool,
 }
 
 /// What came back.
@@ -37,6 +40,9 @@ pub struct SolveOutcome {
     pub hold: Option<(usize, Vec3)>,
     /// The equilibrium, or the diagnostic why there is none.
     pub result: Result<Equilibrium, String>,
+    /// Load factor of the limit point or bifurcation that stopped the solve, if that is why
+    /// there is no equilibrium.
+    pub critical: Option<f64>,
     pub stiffness: Option<Result<NodeStiffness, String>>,
     /// Wall time of the solve.
     pub elapsed: Duration,
@@ -52,14 +58,16 @@ fn solve_cancellable(req: &SolveRequest, cancel: Option<&Arc<AtomicBool>>) -> So
     let start = Instant::now();
 
     let model = &*req.model;
-    let warm = req.warm.as_deref().filter(|w| w.len() == model.nodes.len());
+    let warm = req.warm.as_ref().filter(|w| w.positions.len() == model.nodes.len());
     let (result, stiffness) = match req.hold {
-        Some((node, at)) => (
-            cancellable(Statics::holding(model, node), cancel).solve_held(req.case, at, warm),
-            None,
-        ),
+        Some((node, at)) => {
+            let mut statics = cancellable(Statics::holding(model, node), cancel);
+            statics.settings.follow = req.follow;
+            (statics.solve_held(req.case, at, warm), None)
+        }
         None => {
-            let statics = cancellable(Statics::new(model), cancel);
+            let mut statics = cancellable(Statics::new(model), cancel);
+            statics.settings.follow = req.follow;
             let result = statics.solve(req.case, warm);
             let stiffness = match (&result, req.stiffness_at) {
                 (Ok(eq), Some(n)) if eq.stability.is_stable() => Some(statics.node_stiffness(eq, n).map_err(|e| e.to_string())),
@@ -73,6 +81,7 @@ fn solve_cancellable(req: &SolveRequest, cancel: Option<&Arc<AtomicBool>>) -> So
         model: req.model.clone(),
         case: req.case,
         hold: req.hold,
+        critical: result.as_ref().err().and_then(|e| e.critical_load_factor()),
         result: result.map_err(|e| e.to_string()),
         stiffness,
         elapsed: start.elapsed(),

@@ -13,10 +13,10 @@ pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
                 Ok(eq) => {
                     let state = if eq.stability.is_stable() { "stable" } else { "NOT STABLE" };
                     ui.label(format!(
-                        "{} · {} iterations, {} load step(s) · residual {:.1e} · {:.1} ms",
+                        "{} · {}, {} · residual {:.1e} · {:.1} ms",
                         state,
-                        eq.iterations,
-                        eq.load_steps,
+                        rigwright_report::format::count(eq.iterations, "iteration"),
+                        rigwright_report::format::count(eq.load_steps, "load step"),
                         eq.residual.abs(),
                         s.elapsed.as_secs_f64() * 1e3
                     ));

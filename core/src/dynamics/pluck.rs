@@ -60,7 +60,7 @@ impl Record {
 pub fn pulled_positions(model: &Model, case: usize, eq: &Equilibrium, node: usize, offset: Vec3) -> Result<Vec<Vec3>, SolveError> {
     let statics = Statics::holding(model, node);
     let at = eq.nodes[node].position + offset;
-    let held = statics.solve_held(case, at, Some(&eq.positions()))?;
+    let held = statics.solve_held(case, at, Some(&eq.into()))?;
     if !held.stability.is_stable() {
         return Err(SolveError::NotStable(held.stability.describe()));
     }

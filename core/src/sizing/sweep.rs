@@ -371,7 +371,7 @@ pub fn sweep_watched(
         rows: Vec::with_capacity(steps),
         notes: Vec::with_capacity(steps),
     };
-    let mut warm: Option<Vec<Vec3>> = None;
+    let mut warm: Option<crate::solve::Warm> = None;
     for k in 0..steps {
         if watch.stopped() {
             break;
@@ -392,7 +392,7 @@ pub fn sweep_watched(
             }
         };
         let statics = Statics::new(&model).cancel_with(watch.flag());
-        let eq = match statics.solve(case_index, warm.as_deref()) {
+        let eq = match statics.solve(case_index, warm.as_ref()) {
             Ok(eq) if eq.stability.is_stable() => eq,
             Ok(eq) => {
                 result.rows.push(vec![None; outputs.len()]);
@@ -471,7 +471,7 @@ pub fn sweep_watched(
                 }
             }
         }
-        warm = Some(eq.positions());
+        warm = Some((&eq).into());
         result.rows.push(row);
         result.notes.push(note);
     }

@@ -100,9 +100,6 @@ pub enum Route {
     /// unstressed cables), its state there found by energy minimisation from the drawn
     /// geometry.
     LoadPath { from: f64 },
-    /// Continued from a nearby equilibrium the caller gave (a drag, a Sweep, a Pull): Newton
-    /// converged from it at once, so it is the same branch as that state.
-    Nearby,
     /// The unloaded rig is a mechanism (or has no unloaded equilibrium), so the full load was
     /// applied at once and the equilibrium found by energy minimisation from the drawn
     /// geometry (a trust-region Newton method). It is an equilibrium under the full load, but
@@ -125,7 +122,6 @@ impl Route {
     pub fn describe(&self) -> Option<String> {
         match self {
             Route::LoadPath { .. } => None,
-            Route::Nearby => Some("continued from the nearby equilibrium shown before".into()),
             Route::GlobalStart => Some(
                 "the unloaded rig is a mechanism, so this equilibrium was found by energy minimisation from the drawn geometry under the full load"
                     .into(),
@@ -152,6 +148,26 @@ pub fn sig6(x: f64) -> String {
         format!("{x:.decimals$}")
     } else {
         format!("{x:.5e}")
+    }
+}
+
+/// A nearby state to start a solve from (a drag, a Sweep, a Pull): the node positions of an
+/// equilibrium of this or a slightly different rig, and the route by which that equilibrium
+/// was reached. A warm solve that converges at once from it lies on the same branch, so it
+/// inherits the route.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Warm {
+    /// Node positions (m), in model order.
+    pub positions: Vec<Vec3>,
+    pub route: Route,
+}
+
+impl From<&Equilibrium> for Warm {
+    fn from(eq: &Equilibrium) -> Self {
+        Warm {
+            positions: eq.positions(),
+            route: eq.route.clone(),
+        }
     }
 }
 

@@ -27,7 +27,7 @@ use nalgebra::{DMatrix, SymmetricEigen};
 use super::newton::{Converged, Mode, NewtonFail};
 use super::path::{Critical, CriticalKind, PathEnd, Walker};
 use super::relax::Relaxed;
-use super::result::{Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, Principal, Route, Stability, sig6};
+use super::result::{Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, Principal, Route, Stability, Warm, sig6};
 use super::stability::{Definiteness, lowest_mode, verdict_at};
 use super::system::{DofMap, Part, System, member_vector};
 use crate::model::{Model, Vec3};
@@ -73,14 +73,14 @@ pub enum SolveError {
     #[error("mechanism: node `{node}` moves without limit along ({:.3}, {:.3}, {:.3}); add a member or a support that resists that direction, or pretension the members there", direction[0], direction[1], direction[2])]
     Mechanism { node: String, direction: [f64; 3] },
     /// The load path reached a limit point (snap-through or collapse) before full load.
-    #[error("limit point at load factor {}: the rig carries only {} % of the load case before node `{node}` snaps through or collapses (`--follow` shows where it goes); stiffen or brace it, or reduce the load", sig6(*load_factor), sig6(load_factor * 100.0))]
+    #[error("limit point at load factor {}: the rig carries only {} % of the load case before node `{node}` snaps through or collapses (following the path past it shows where the rig goes); stiffen or brace it, or reduce the load", sig6(*load_factor), sig6(load_factor * 100.0))]
     LimitPoint {
         load_factor: f64,
         node: String,
         direction: [f64; 3],
     },
     /// The load path lost stability at a bifurcation before full load.
-    #[error("bifurcation at load factor {}: beyond {} % of the load case the rig buckles, node `{node}` moving along ({:.3}, {:.3}, {:.3}) (`--follow` shows where it goes); brace it, or reduce the load", sig6(*load_factor), sig6(load_factor * 100.0), direction[0], direction[1], direction[2])]
+    #[error("bifurcation at load factor {}: beyond {} % of the load case the rig buckles, node `{node}` moving along ({:.3}, {:.3}, {:.3}) (following the path past it shows where the rig goes); brace it, or reduce the load", sig6(*load_factor), sig6(load_factor * 100.0), direction[0], direction[1], direction[2])]
     Bifurcation {
         load_factor: f64,
         node: String,
@@ -239,8 +239,8 @@ impl<'m> Statics<'m> {
     }
 
     /// Equilibrium of load case `case` (index), starting from the drawn geometry, or from
-    /// `warm` (node positions of a nearby equilibrium, m) when given.
-    pub fn solve(&self, case: usize, warm: Option<&[Vec3]>) -> Result<Equilibrium, SolveError> {
+    /// `warm` (a nearby equilibrium) when given.
+    pub fn solve(&self, case: usize, warm: Option<&Warm>) -> Result<Equilibrium, SolveError> {
         if let Some(h) = self.held {
             return Err(SolveError::BadNode(
                 self.model.nodes[h].id.clone(),
@@ -252,7 +252,7 @@ impl<'m> Statics<'m> {
 
     /// Equilibrium with the held node at `position` (m); the result's `hold` gives the force
     /// needed to hold it there.
-    pub fn solve_held(&self, case: usize, position: Vec3, warm: Option<&[Vec3]>) -> Result<Equilibrium, SolveError> {
+    pub fn solve_held(&self, case: usize, position: Vec3, warm: Option<&Warm>) -> Result<Equilibrium, SolveError> {
         let Some(node) = self.held else {
             return Err(SolveError::BadNode(
                 String::new(),
@@ -277,7 +277,7 @@ impl<'m> Statics<'m> {
         u
     }
 
-    fn run(&self, case: usize, warm: Option<&[Vec3]>, hold: Option<(usize, Vec3)>) -> Result<Equilibrium, SolveError> {
+    fn run(&self, case: usize, warm: Option<&Warm>, hold: Option<(usize, Vec3)>) -> Result<Equilibrium, SolveError> {
         let model = self.model;
         if case >= model.cases.len() {
             return Err(SolveError::UnknownCase(format!("#{case}"), String::new()));
@@ -291,10 +291,13 @@ impl<'m> Statics<'m> {
         let cancelled = |iterations| SolveError::Cancelled { iterations };
 
         // 1. A warm start moves only free directions: a held coordinate keeps its drawn
-        //    value (or the hold position), whatever the nearby state had there.
-        if let Some(w) = warm
-            && w.len() == start.len()
+        //    value (or the hold position), whatever the nearby state had there. A state
+        //    followed past a critical point is a start only when following is asked for.
+        if let Some(warm) = warm
+            && warm.positions.len() == start.len()
+            && (self.settings.follow || !matches!(warm.route, Route::Followed { .. }))
         {
+            let w = &warm.positions;
             let mut u = start.clone();
             for (n, a, _) in self.system.dofs.free() {
                 u[n][a] = w[n][a] - model.nodes[n].position[a];
@@ -304,7 +307,7 @@ impl<'m> Statics<'m> {
                     let work = Work {
                         iterations,
                         steps: 1,
-                        route: Route::Nearby,
+                        route: warm.route.clone(),
                     };
                     return Ok(self.finish(case, u, &load, c, work, hold));
                 }

@@ -84,8 +84,9 @@ pub(super) fn cases_table(flow: &mut Flow, sheet: &Sheet, fmt: &Fmt) {
             };
             let state = match (&c.equilibrium, &c.error) {
                 (Some(eq), _) => Cell::text(format!(
-                    "stable equilibrium ({} Newton iterations, {} load step(s))",
-                    eq.iterations, eq.load_steps
+                    "stable equilibrium ({}, {})",
+                    crate::format::count(eq.iterations, "Newton iteration"),
+                    crate::format::count(eq.load_steps, "load step")
                 )),
                 (None, e) => Cell {
                     lines: vec!["NO EQUILIBRIUM".into(), e.clone().unwrap_or_default()],

@@ -9,6 +9,7 @@ mod checks;
 mod members;
 mod modes;
 mod nodes;
+mod path;
 mod pluck;
 mod pull;
 mod stiffness;
@@ -48,6 +49,7 @@ pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
         ReadoutTab::Modes => return modes::ui(app, ui),
         ReadoutTab::Checks => return checks::ui(app, ui),
         ReadoutTab::Sweep => return sweep::ui(app, ui),
+        ReadoutTab::Path => return path::ui(app, ui),
         _ => {}
     }
     let Some(answer) = app.answer() else {
@@ -64,6 +66,6 @@ pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
             ReadoutTab::Members => members::ui(&answer, units, ui),
             ReadoutTab::Nodes => nodes::ui(&answer, units, ui),
             ReadoutTab::Stiffness => stiffness::ui(app, units, ui),
-            ReadoutTab::Pull | ReadoutTab::Modes | ReadoutTab::Pluck | ReadoutTab::Checks | ReadoutTab::Sweep => {}
+            ReadoutTab::Pull | ReadoutTab::Modes | ReadoutTab::Pluck | ReadoutTab::Checks | ReadoutTab::Sweep | ReadoutTab::Path => {}
         });
 }

@@ -12,10 +12,11 @@ pub enum ReadoutTab {
     Pluck,
     Checks,
     Sweep,
+    Path,
 }
 
 impl ReadoutTab {
-    pub const ALL: [ReadoutTab; 8] = [
+    pub const ALL: [ReadoutTab; 9] = [
         ReadoutTab::Members,
         ReadoutTab::Nodes,
         ReadoutTab::Stiffness,
@@ -24,6 +25,7 @@ impl ReadoutTab {
         ReadoutTab::Pluck,
         ReadoutTab::Checks,
         ReadoutTab::Sweep,
+        ReadoutTab::Path,
     ];
 
     pub fn label(self) -> &'static str {
@@ -36,6 +38,7 @@ impl ReadoutTab {
             ReadoutTab::Pluck => "Pluck",
             ReadoutTab::Checks => "Checks",
             ReadoutTab::Sweep => "Sweep",
+            ReadoutTab::Path => "Load path",
         }
     }
 
@@ -49,6 +52,9 @@ impl ReadoutTab {
             ReadoutTab::Pluck => "The free vibration after a pulled node is let go: time history, frequency, energy",
             ReadoutTab::Checks => "Every member checked in every load case: utilisation, status and the governing check; auto-size",
             ReadoutTab::Sweep => "Vary one parameter over a range and plot an output",
+            ReadoutTab::Path => {
+                "Load factor against a node's displacement through limit points; follow the rig past a limit point on request"
+            }
         }
     }
 }

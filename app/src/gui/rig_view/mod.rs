@@ -57,6 +57,9 @@ pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
     if let Some(d) = app.diagnostic() {
         banners.push((d, pal::ALARM));
     }
+    if let Some(note) = app.route_note() {
+        banners.push((format!("Note — {note}"), pal::CAUTION));
+    }
     if let Some(p) = &app.doc.problems {
         banners.push((
             format!("Edit not solved — the rig as edited is not valid; showing the last valid rig.\n{p}"),

@@ -88,10 +88,15 @@ pub(super) fn draw_scale_bar_and_axes(view: &RigView, painter: &egui::Painter, u
     );
 }
 
+/// Width kept free at the top right for the force legend (pt).
+const LEGEND_ROOM: f64 = 220.0;
+
 pub(super) fn draw_banners(painter: &egui::Painter, rect: Rect, banners: &[(String, Color32)]) {
     let mut y = rect.top() + 30.0;
+    // Banners wrap clear of the legend, which is drawn at the top right.
+    let wrap = (rect.width() - 80.0 - LEGEND_ROOM as f32).max(200.0);
     for (text, colour) in banners {
-        let galley = painter.layout(text.clone(), FontId::proportional(13.5), Color32::WHITE, rect.width() - 80.0);
+        let galley = painter.layout(text.clone(), FontId::proportional(13.5), Color32::WHITE, wrap);
         let r = Rect::from_min_size(pos2(rect.left() + 24.0, y), galley.size() + vec2(20.0, 12.0));
         painter.rect_filled(r, 4.0, *colour);
         painter.galley(r.min + vec2(10.0, 6.0), galley, Color32::WHITE);
