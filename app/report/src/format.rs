@@ -164,6 +164,11 @@ pub fn percent(u: f64) -> String {
     format!("{:.1} %", u * 100.0)
 }
 
+/// `n` and the noun, in the plural unless `n` is 1: "1 load step", "3 load steps".
+pub fn count(n: usize, noun: &str) -> String {
+    if n == 1 { format!("1 {noun}") } else { format!("{n} {noun}s") }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -185,9 +190,4 @@ mod tests {
         assert_eq!(Fmt::new(Units::Si, 1.0).small(-1e-6), "0.00");
         assert_eq!(Fmt::new(Units::Si, 5000.0).force(-2.0e-9), "0");
     }
-}
-
-/// `n` and the noun, in the plural unless `n` is 1: "1 load step", "3 load steps".
-pub fn count(n: usize, noun: &str) -> String {
-    if n == 1 { format!("1 {noun}") } else { format!("{n} {noun}s") }
 }
