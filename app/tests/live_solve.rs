@@ -112,9 +112,10 @@ fn a_newer_request_cancels_the_large_solve_in_flight_and_only_the_newest_answer_
 }
 
 /// Moving an anchor in the app shows exactly the equilibrium a cold solve of the edited file
-/// gives, and so do undo and redo (issue 14: wall-right at x = 5.5 m gives 428.40 N and
-/// 384.28 N in the two ropes; before, the warm start put the anchor back and showed 374.9 N
-/// and 294.5 N).
+/// gives, and so do undo and redo (issue 14: wall-right at x = 5.5 m gives 429.39 N and
+/// 385.70 N at the upper ends of the two ropes, their own weight in their catenaries (428.40 N
+/// and 384.28 N with it lumped at the ends); before, the warm start put the anchor back and
+/// showed 374.9 N and 294.5 N).
 #[test]
 fn moving_an_anchor_shows_the_equilibrium_of_the_edited_rig_and_undo_redo_agree() {
     use rigwright_core::Statics;
@@ -152,7 +153,7 @@ fn moving_an_anchor_shows_the_equilibrium_of_the_edited_rig_and_undo_redo_agree(
     });
     app.apply_commands();
     app.solve_if_needed();
-    check(&app, Some((428.40, 384.28)));
+    check(&app, Some((429.39, 385.70)));
     app.queue(Command::Undo);
     app.apply_commands();
     app.solve_if_needed();
@@ -160,5 +161,5 @@ fn moving_an_anchor_shows_the_equilibrium_of_the_edited_rig_and_undo_redo_agree(
     app.queue(Command::Redo);
     app.apply_commands();
     app.solve_if_needed();
-    check(&app, Some((428.40, 384.28)));
+    check(&app, Some((429.39, 385.70)));
 }

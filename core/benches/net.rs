@@ -8,7 +8,7 @@
 use criterion::{BenchmarkId, Criterion, criterion_group, criterion_main};
 use rigwright_core::Statics;
 use rigwright_core::gallery::cable_net;
-use rigwright_core::solve::system::Part;
+use rigwright_core::solve::system::{Loading, Part};
 
 fn net(n: usize) -> rigwright_core::Model {
     cable_net(n, 1.0, 5.0e6, 5000.0, 2.0).validate().expect("net is valid")
@@ -22,19 +22,19 @@ fn benches(c: &mut Criterion) {
         let statics = Statics::new(&model);
         let sys = statics.system();
         let pos = vec![rigwright_core::Vec3::zeros(); model.nodes.len()];
-        let load = model.case_forces(0);
+        let load = Loading::of(&model, 0);
         let dofs = sys.size();
         g.bench_with_input(BenchmarkId::new("assembly", dofs), &n, |b, _| {
-            b.iter(|| sys.assemble(&model, &pos, Part::Total))
+            b.iter(|| sys.assemble(&model, &pos, &load.gravity, Part::Total))
         });
-        let values = sys.assemble(&model, &pos, Part::Total);
+        let values = sys.assemble(&model, &pos, &load.gravity, Part::Total);
         g.bench_with_input(BenchmarkId::new("factorisation", dofs), &n, |b, _| {
             b.iter(|| sys.factor(&values, 0.0).expect("positive definite"))
         });
         g.bench_with_input(BenchmarkId::new("newton_iteration", dofs), &n, |b, _| {
             b.iter(|| {
                 let e = sys.evaluate(&model, &pos, &load, 1.0).expect("finite");
-                let k = sys.assemble(&model, &pos, Part::Total);
+                let k = sys.assemble(&model, &pos, &load.gravity, Part::Total);
                 let f = sys.factor(&k, 0.0).expect("positive definite");
                 let mut dx: Vec<f64> = e.residual.iter().map(|r| -r).collect();
                 f.solve_in_place(&mut dx);

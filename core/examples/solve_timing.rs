@@ -14,7 +14,7 @@ fn main() {
     println!("pattern and symbolic analysis {:.1} ms", t.elapsed().as_secs_f64() * 1e3);
     let eq = statics.solve(0, None).expect("converges");
     let sys = statics.system();
-    let k = sys.assemble(&model, &eq.displacements(), Part::Total);
+    let k = sys.assemble(&model, &eq.displacements(), &model.case_gravity(0), Part::Total);
     let t = Instant::now();
     let f = sys.factor(&k, 0.0).expect("factor");
     println!("factor {:.1} ms ({} DOF)", t.elapsed().as_secs_f64() * 1e3, sys.size());

@@ -6,7 +6,8 @@
 //! end b, `L = |d|`, the axial force is `N = EA (L − L0)/L0` for a cable or strut (a cable with
 //! `L ≤ L0` carries nothing) and `N = k (L − L0)` for a spring; end b feels `−N d/L`, end a
 //! `+N d/L` (internal forces `f_int` are their negatives), and the 3×3 tangent block is
-//! `k_a ê êᵀ + (N/L)(I − ê êᵀ)`.
+//! `k_a ê êᵀ + (N/L)(I − ê êᵀ)`. A cable with a mass per length under gravity is an elastic
+//! catenary, written here from Irvine's forward map with its own root finder (see `catenary`).
 
 use nalgebra::{DMatrix, DVector, Matrix3, SymmetricEigen, Vector3};
 use rigwright_core::{Equilibrium, MemberKind, Model};
@@ -51,14 +52,11 @@ pub fn residual(model: &Model, case: usize, u: &[Vector3<f64>]) -> f64 {
     let mut mag = vec![Vector3::zeros(); n];
     for m in &model.members {
         let [a, b] = m.ends;
-        let d = vector(model, u, a, b);
-        let l = d.norm();
-        let (force, _) = law(&m.kind, l);
-        let fe = d * (force / l);
-        f[b] += fe;
-        f[a] -= fe;
-        mag[a] += fe.abs();
-        mag[b] += fe.abs();
+        let Some(r) = member_law(model, case, m, u) else { return f64::NAN };
+        f[a] += r.end_a;
+        f[b] += r.end_b;
+        mag[a] += r.end_a.abs();
+        mag[b] += r.end_b.abs();
     }
     let c = &model.cases[case];
     let mut ext = vec![Vector3::zeros(); n];
@@ -81,12 +79,9 @@ pub fn residual(model: &Model, case: usize, u: &[Vector3<f64>]) -> f64 {
 /// whose tension is below a billionth of the largest member force or nodal load counted slack:
 /// at zero tension it resists stretching but not slackening, so its one-sided stiffness cannot
 /// make a state stable (common practice for tension-only members).
-pub fn tangent(model: &Model, u: &[Vector3<f64>]) -> DMatrix<f64> {
-    let members = model
-        .members
-        .iter()
-        .map(|m| law(&m.kind, vector(model, u, m.ends[0], m.ends[1]).norm()).0.abs())
-        .fold(0.0, f64::max);
+pub fn tangent(model: &Model, case: usize, u: &[Vector3<f64>]) -> DMatrix<f64> {
+    let laws: Vec<Option<MemberLaw>> = model.members.iter().map(|m| member_law(model, case, m, u)).collect();
+    let members = laws.iter().flatten().map(|r| r.tension.abs()).fold(0.0, f64::max);
     let mut loads = 0.0f64;
     for c in &model.cases {
         for (i, node) in model.nodes.iter().enumerate() {
@@ -106,17 +101,16 @@ pub fn tangent(model: &Model, u: &[Vector3<f64>]) -> DMatrix<f64> {
         index[i][a] = Some(k);
     }
     let mut k = DMatrix::zeros(dofs.len(), dofs.len());
-    for m in &model.members {
+    for (m, r) in model.members.iter().zip(&laws) {
         let [a, b] = m.ends;
-        let d = vector(model, u, a, b);
-        let l = d.norm();
-        let (force, ka) = law(&m.kind, l);
-        if matches!(m.kind, MemberKind::Cable { .. }) && force <= floor {
+        let Some(r) = r else {
+            k.fill(f64::NAN);
+            return k;
+        };
+        if matches!(m.kind, MemberKind::Cable { .. }) && !r.sagging && r.tension <= floor {
             continue;
         }
-        let e = d / l;
-        let eet = e * e.transpose();
-        let block: Matrix3<f64> = eet * ka + (Matrix3::identity() - eet) * (force / l);
+        let block = r.block;
         for (p, sp) in [(a, 1.0), (b, -1.0)] {
             for (q, sq) in [(a, 1.0), (b, -1.0)] {
                 for i in 0..3 {
@@ -133,8 +127,11 @@ pub fn tangent(model: &Model, u: &[Vector3<f64>]) -> DMatrix<f64> {
 }
 
 /// Lowest eigenvalue of the dense tangent and the largest entry magnitude (N/m).
-pub fn lowest_eigenvalue(model: &Model, u: &[Vector3<f64>]) -> (f64, f64) {
-    let k = tangent(model, u);
+pub fn lowest_eigenvalue(model: &Model, case: usize, u: &[Vector3<f64>]) -> (f64, f64) {
+    let k = tangent(model, case, u);
+    if k.iter().any(|x| x.is_nan()) {
+        return (f64::NAN, f64::NAN);
+    }
     if k.nrows() == 0 {
         return (f64::INFINITY, 0.0);
     }
@@ -158,7 +155,7 @@ pub fn check_stable_answer(model: &Model, case: usize, eq: &Equilibrium) -> Resu
     if r.is_nan() || r > 1e-8 {
         return Err(format!("relative residual {r:.3e} from the member laws"));
     }
-    let (low, scale) = lowest_eigenvalue(model, &u);
+    let (low, scale) = lowest_eigenvalue(model, case, &u);
     if low.is_nan() || low <= 1e-14 * scale {
         return Err(format!(
             "lowest tangent eigenvalue {low:.3e} N/m against {scale:.3e} N/m: not positive definite"
@@ -171,13 +168,7 @@ pub fn check_stable_answer(model: &Model, case: usize, eq: &Equilibrium) -> Resu
 pub fn potential(model: &Model, case: usize, u: &[Vector3<f64>]) -> f64 {
     let mut e = 0.0;
     for m in &model.members {
-        let [a, b] = m.ends;
-        let l = vector(model, u, a, b).norm();
-        let stretch = l - m.kind.rest_length();
-        e += match m.kind {
-            MemberKind::Cable { .. } if stretch <= 0.0 => 0.0,
-            _ => 0.5 * m.kind.rate() * stretch * stretch,
-        };
+        e += member_law(model, case, m, u).map_or(f64::NAN, |r| r.energy);
     }
     let c = &model.cases[case];
     for (i, node) in model.nodes.iter().enumerate() {
@@ -208,11 +199,13 @@ pub fn minimise(model: &Model, case: usize) -> Option<Vec<Vector3<f64>>> {
         let mut f = vec![Vector3::zeros(); nn];
         for m in &model.members {
             let [a, b] = m.ends;
-            let d = vector(model, u, a, b);
-            let l = d.norm();
-            let (force, _) = law(&m.kind, l);
-            f[b] += d * (force / l);
-            f[a] -= d * (force / l);
+            match member_law(model, case, m, u) {
+                Some(r) => {
+                    f[a] += r.end_a;
+                    f[b] += r.end_b;
+                }
+                None => f[a] += Vector3::repeat(f64::NAN),
+            }
         }
         let c = &model.cases[case];
         for (i, node) in model.nodes.iter().enumerate() {
@@ -233,7 +226,7 @@ pub fn minimise(model: &Model, case: usize) -> Option<Vec<Vector3<f64>>> {
     let mut radius = 0.1 * extent;
     for _ in 0..3000 {
         let g = gradient(&u);
-        let k = tangent(model, &u);
+        let k = tangent(model, case, &u);
         let scale = k.abs().max().max(1e-300);
         if !g.iter().all(|x| x.is_finite()) || u.iter().any(|x| x.norm() > 1e3 * extent) {
             return None;
@@ -326,3 +319,155 @@ pub fn minimise(model: &Model, case: usize) -> Option<Vec<Vector3<f64>>> {
     }
     None
 }
+
+/// One member's end forces (internal, `f_int`), its energy and its 3×3 tangent block, and the
+/// force to judge slackness by, from the laws alone. A cable with mass per length under a
+/// nonzero gravity is an elastic catenary (below); every other member is straight.
+struct MemberLaw {
+    end_a: Vector3<f64>,
+    end_b: Vector3<f64>,
+    energy: f64,
+    block: Matrix3<f64>,
+    tension: f64,
+    sagging: bool,
+}
+
+fn member_law(model: &Model, case: usize, m: &rigwright_core::Member, u: &[Vector3<f64>]) -> Option<MemberLaw> {
+    let [a, b] = m.ends;
+    let d = vector(model, u, a, b);
+    let g = model.gravity * model.cases[case].gravity;
+    if let MemberKind::Cable { ea, l0 } = m.kind
+        && m.mass_per_length > 0.0
+        && g.norm() > 0.0
+    {
+        let w = m.mass_per_length * g.norm();
+        let up = -g / g.norm();
+        let base = (model.nodes[a].position + u[a]).dot(&up);
+        return catenary(&d, &up, w, ea, l0, base);
+    }
+    let l = d.norm();
+    let (force, ka) = law(&m.kind, l);
+    let e = d / l;
+    let eet = e * e.transpose();
+    let stretch = l - m.kind.rest_length();
+    let energy = match m.kind {
+        MemberKind::Cable { .. } if stretch <= 0.0 => 0.0,
+        _ => 0.5 * m.kind.rate() * stretch * stretch,
+    };
+    Some(MemberLaw {
+        end_a: -e * force,
+        end_b: e * force,
+        energy,
+        block: eet * ka + (Matrix3::identity() - eet) * (force / l),
+        tension: force,
+        sagging: false,
+    })
+}
+
+/// Irvine's elastic catenary (*Cable Structures*, MIT Press 1981, ch. 1; from memory, shared
+/// REFERENCES §2), written here from the published forward map: with the tension at end a
+/// having horizontal component `H` and vertical component `V` along the cable towards b,
+///   `x = H L0/EA + (H/w)[asinh(V_b/H) − asinh(V/H)]`, `V_b = V + w L0`,
+///   `z = (V L0 + w L0²/2)/EA + (H/w)[√(1+(V_b/H)²) − √(1+(V/H)²)]`.
+/// `(H, V)` for the chord are found by a damped Newton method on this map from the initial
+/// guess of Peyrot & Goulois (1979, J. Struct. Div. ASCE 105(ST5); from memory); the in-plane
+/// tangent is the inverse of the map's Jacobian (the flexibility), the out-of-plane one `H/l_x`.
+/// Energy: `∫ T²/(2EA) ds + w ∫ z ds` plus the weight at the height `base` of end a.
+fn catenary(d: &Vector3<f64>, up: &Vector3<f64>, w: f64, ea: f64, l0: f64, base: f64) -> Option<MemberLaw> {
+    let lz = d.dot(up);
+    let hvec = d - up * lz;
+    let lx = hvec.norm();
+    if lx <= 1e-9 * d.norm() {
+        return None;
+    }
+    let horiz = hvec / lx;
+    let map = |h: f64, v: f64| -> ((f64, f64), [[f64; 2]; 2]) {
+        let vb = v + w * l0;
+        let (ra, rb) = ((1.0 + (v / h).powi(2)).sqrt(), (1.0 + (vb / h).powi(2)).sqrt());
+        let x = h * l0 / ea + h / w * ((vb / h).asinh() - (v / h).asinh());
+        let z = (v * l0 + 0.5 * w * l0 * l0) / ea + h / w * (rb - ra);
+        // Derivatives with respect to H and V (V_b moves with V).
+        let dx_dh = l0 / ea + ((vb / h).asinh() - (v / h).asinh()) / w - (vb / rb - v / ra) / (w * h);
+        let dx_dv = (1.0 / rb - 1.0 / ra) / w;
+        let dz_dh = (rb - ra) / w - ((vb / h).powi(2) / rb - (v / h).powi(2) / ra) / w;
+        let dz_dv = l0 / ea + (vb / (h * rb) - v / (h * ra)) / w;
+        ((x, z), [[dx_dh, dx_dv], [dz_dh, dz_dv]])
+    };
+    // Initial guess (Peyrot & Goulois).
+    let chord2 = lx * lx + lz * lz;
+    let lam = if l0 * l0 <= chord2 {
+        0.2
+    } else {
+        (3.0 * ((l0 * l0 - lz * lz) / (lx * lx) - 1.0)).sqrt().max(1e-6)
+    };
+    let mut h = (w * lx / (2.0 * lam)).abs().max(1e-300);
+    let mut v = 0.5 * w * (lz / lam.tanh() - l0);
+    let size = l0.max(chord2.sqrt());
+    // Converged at 1e-14 of the size, or where round-off in the map stops the progress
+    // (within 1e-11 of the size; the map's own round-off is about 1e-14 of its largest term).
+    let mut converged = false;
+    let mut stalls = 0;
+    for _ in 0..300 {
+        let ((x, z), j) = map(h, v);
+        let (rx, rz) = (x - lx, z - lz);
+        let before = (rx * rx + rz * rz).sqrt();
+        if before <= 1e-14 * size || (before <= 1e-11 * size && stalls >= 3) {
+            converged = true;
+            break;
+        }
+        let det = j[0][0] * j[1][1] - j[0][1] * j[1][0];
+        let dh = -(j[1][1] * rx - j[0][1] * rz) / det;
+        let dv = -(-j[1][0] * rx + j[0][0] * rz) / det;
+        // Damped: keep H positive, shrink until the mismatch falls.
+        let mut t = 1.0;
+        loop {
+            let (hn, vn) = (h + t * dh, v + t * dv);
+            if hn > 0.0 {
+                let ((xn, zn), _) = map(hn, vn);
+                let after = ((xn - lx).powi(2) + (zn - lz).powi(2)).sqrt();
+                if after < before || t < 1e-6 {
+                    if after > 0.5 * before {
+                        stalls += 1;
+                    }
+                    h = hn;
+                    v = vn;
+                    break;
+                }
+            }
+            t *= 0.5;
+            if t < 1e-12 {
+                return None;
+            }
+        }
+    }
+    if !converged {
+        return None;
+    }
+    let ((_, _), j) = map(h, v);
+    let det = j[0][0] * j[1][1] - j[0][1] * j[1][0];
+    // Stiffness in the (horizontal, up) plane: inverse of the flexibility.
+    let k = [[j[1][1] / det, -j[0][1] / det], [-j[1][0] / det, j[0][0] / det]];
+    let lateral = up.cross(&horiz);
+    let mut block = lateral * lateral.transpose() * (h / lx);
+    let basis = [horiz, *up];
+    for (p, bp) in basis.iter().enumerate() {
+        for (q, bq) in basis.iter().enumerate() {
+            block += bp * bq.transpose() * k[p][q];
+        }
+    }
+    let vb = v + w * l0;
+    let strain = (h * h * l0 + (vb.powi(3) - v.powi(3)) / (3.0 * w)) / (2.0 * ea);
+    let prim = |s: f64| 0.5 * (s * (1.0 + s * s).sqrt() + s.asinh());
+    let int_z = (0.5 * v * l0 * l0 + w * l0.powi(3) / 6.0) / ea
+        + h / w * (h / w * (prim(vb / h) - prim(v / h)) - l0 * (1.0 + (v / h).powi(2)).sqrt());
+    let energy = strain + w * int_z + w * l0 * base;
+    Some(MemberLaw {
+        end_a: -(horiz * h + up * v),
+        end_b: horiz * h + up * vb,
+        energy,
+        block,
+        tension: h.hypot(v).max(h.hypot(vb)),
+        sagging: true,
+    })
+}
+

@@ -13,7 +13,7 @@ fn reactions_balance_applied_loads_in_every_sample_and_case() {
         let statics = Statics::new(&m);
         for c in 0..m.cases.len() {
             let eq = statics.solve(c, None).unwrap();
-            let loads: Vec3 = m.case_forces(c).iter().sum();
+            let loads: Vec3 = m.case_resultant(c);
             let reactions: Vec3 = eq.nodes.iter().filter_map(|n| n.reaction).sum();
             let scale = loads.norm().max(1.0);
             assert!(
@@ -38,8 +38,8 @@ fn assembled_tangent_matches_central_differences_of_the_residual() {
                 *p += Vec3::new(0.003 * ((i % 3) as f64 - 1.0), 0.002 * ((i % 5) as f64 - 2.0), 0.0);
             }
         }
-        let load = m.case_forces(0);
-        let k = sys.dense(&sys.assemble(&m, &pos, Part::Total));
+        let load = rigwright_core::solve::system::Loading::of(&m, 0);
+        let k = sys.dense(&sys.assemble(&m, &pos, &load.gravity, Part::Total));
         let n = sys.size();
         let h = 1e-7;
         let mut worst: f64 = 0.0;
@@ -77,7 +77,7 @@ fn a_held_node_needs_the_force_that_closes_the_balance_and_it_grows_with_the_pul
         let eq = statics.solve_held(0, at, Some(&warm)).unwrap();
         warm = (&eq).into();
         let hold = eq.hold.clone().unwrap();
-        let loads: Vec3 = m.case_forces(0).iter().sum();
+        let loads: Vec3 = m.case_resultant(0);
         let reactions: Vec3 = eq.nodes.iter().filter_map(|n| n.reaction).sum();
         assert!((loads + reactions + hold.force).norm() < 1e-8 * loads.norm());
         // Pulling down needs a downward force that grows with the pull.

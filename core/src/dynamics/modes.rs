@@ -91,13 +91,14 @@ pub fn modes_watched(statics: &Statics, eq: &Equilibrium, count: usize, watch: &
         return Err(ModeError::NothingFree);
     }
     let disp = eq.displacements();
-    let k = sys.assemble(model, &disp, Part::Total);
+    let gravity = statics.gravity_of(eq);
+    let k = sys.assemble(model, &disp, &gravity, Part::Total);
     if watch.stopped() {
         return Err(ModeError::Stopped);
     }
     // The one stability verdict: a neutral state has a zero frequency, never a number.
-    if verdict_at(sys, model, &disp).0 != Definiteness::Positive {
-        return Err(ModeError::NotStable(statics.stability_at(&disp).describe()));
+    if verdict_at(sys, model, &disp, &gravity).0 != Definiteness::Positive {
+        return Err(ModeError::NotStable(statics.stability_at(&disp, &gravity).describe()));
     }
     let factor = sys
         .factor(&k, 0.0)
@@ -106,9 +107,10 @@ pub fn modes_watched(statics: &Statics, eq: &Equilibrium, count: usize, watch: &
     // Diagonal mass per free DOF.
     let mut mass = vec![0.0; n];
     let mut mobile_mass = [0.0; 3];
+    let masses = model.dynamic_masses();
     for (node, a, i) in sys.dofs.free() {
-        mass[i] = model.nodes[node].mass;
-        mobile_mass[a] += model.nodes[node].mass;
+        mass[i] = masses[node];
+        mobile_mass[a] += masses[node];
     }
     let massive: Vec<usize> = (0..n).filter(|&i| mass[i] > 0.0).collect();
     if massive.is_empty() {

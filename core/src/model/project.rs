@@ -94,8 +94,12 @@ pub enum Rest {
     /// Unstressed length of a cable or strut, free length of a spring (m).
     Length(f64),
     /// Force in the geometry as drawn (N, tension positive): a cable's pretension,
-    /// a spring's preload (negative for a compression preload).
+    /// a spring's preload (negative for a compression preload). For a cable that sags under
+    /// its own weight, the largest tension, at its upper end, under the project's gravity.
     Tension(f64),
+    /// A cable's pretension given as its horizontal component in the geometry as drawn (N):
+    /// for a sagging cable the same all along the span.
+    Horizontal(f64),
 }
 
 /// Member law as stored.

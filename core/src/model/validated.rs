@@ -49,6 +49,18 @@ pub struct Member {
     /// Node indices of the ends.
     pub ends: [usize; 2],
     pub kind: MemberKind,
+    /// Mass per unstressed length (kg/m). A cable with mass sags under its own weight (an
+    /// elastic catenary that carries its weight in its law); the mass of a spring or strut is
+    /// lumped half to each end node instead.
+    pub mass_per_length: f64,
+}
+
+impl Member {
+    /// True for a cable whose own weight is in its law (it sags): its mass is not in the node
+    /// masses that carry the nodal weights.
+    pub fn sags(&self) -> bool {
+        self.mass_per_length > 0.0 && matches!(self.kind, MemberKind::Cable { .. })
+    }
 }
 
 /// A load case: gravity multiplier and nodal point loads (N).
@@ -130,6 +142,25 @@ impl Model {
         if self.nodes.is_empty() { 1e-3 } else { (hi - lo).norm().max(1e-3) }
     }
 
+    /// Gravitational acceleration of load case `case` at full load (m/s²): the project's
+    /// gravity times the case's multiplier. It weighs the cables that sag.
+    pub fn case_gravity(&self, case: usize) -> Vec3 {
+        self.gravity * self.cases[case].gravity
+    }
+
+    /// Lumped mass of every node for the dynamics (kg): the node's own mass and half of each
+    /// attached member's, sagging cables included (their weight is in their law for the
+    /// statics, their inertia is lumped at their ends).
+    pub fn dynamic_masses(&self) -> Vec<f64> {
+        let mut m: Vec<f64> = self.nodes.iter().map(|n| n.mass).collect();
+        for member in self.members.iter().filter(|x| x.sags()) {
+            let half = 0.5 * member.mass_per_length * member.kind.rest_length();
+            m[member.ends[0]] += half;
+            m[member.ends[1]] += half;
+        }
+        m
+    }
+
     /// External load vector of a case at full load, one force per node (N).
     pub fn case_forces(&self, case: usize) -> Vec<Vec3> {
         let c = &self.cases[case];
@@ -138,6 +169,20 @@ impl Model {
             f[*node] += force;
         }
         f
+    }
+
+    /// Resultant of every load of a case at full load (N): the nodal forces and the weight of
+    /// the cables that sag under their own weight. Balances the sum of the reactions.
+    pub fn case_resultant(&self, case: usize) -> Vec3 {
+        let nodal: Vec3 = self.case_forces(case).iter().sum();
+        let g = self.case_gravity(case);
+        let cables: f64 = self
+            .members
+            .iter()
+            .filter(|m| m.sags())
+            .map(|m| m.mass_per_length * m.kind.rest_length())
+            .sum();
+        nodal + g * cables
     }
 
     /// Checks a project and builds the model, or lists every problem found.
@@ -279,16 +324,22 @@ impl Model {
                 ));
                 continue;
             }
-            match resolve_kind(&m.kind, drawn).and_then(within_bounds) {
+            let chord = nodes[b].position - nodes[a].position;
+            let weight = (m.mass_per_length > 0.0 && finite3(p.gravity)).then(|| (m.mass_per_length, v3(p.gravity)));
+            match resolve_kind(&m.kind, &chord, weight).and_then(within_bounds) {
                 Ok(kind) => {
-                    let w = m.mass_per_length * kind.rest_length() * 0.5;
-                    nodes[a].mass += w;
-                    nodes[b].mass += w;
-                    members.push(Member {
+                    let member = Member {
                         id: m.id.clone(),
                         ends: [a, b],
                         kind,
-                    });
+                        mass_per_length: m.mass_per_length,
+                    };
+                    if !member.sags() {
+                        let w = m.mass_per_length * kind.rest_length() * 0.5;
+                        nodes[a].mass += w;
+                        nodes[b].mass += w;
+                    }
+                    members.push(member);
                 }
                 Err((problem, hint)) => problems.push(Problem::new(&item, problem, hint)),
             }
@@ -431,8 +482,16 @@ fn within_bounds(kind: MemberKind) -> Result<MemberKind, (String, String)> {
     Ok(kind)
 }
 
-/// Resolves the stored member law to a [`MemberKind`] for drawn length `drawn` (m).
-fn resolve_kind(kind: &MemberDocKind, drawn: f64) -> Result<MemberKind, (String, String)> {
+/// Resolves the stored member law to a [`MemberKind`] for the drawn chord `chord` (m), with
+/// the member's mass per length and the project's gravity when it has mass.
+///
+/// A pretension of a cable that sags (`Tension`) is its largest tension, at the upper end, in
+/// the drawn geometry under the project's gravity; `Horizontal` gives the horizontal component
+/// instead (the same all along the span). For a weightless cable both mean the straight
+/// cable's tension (`Horizontal`: its horizontal component).
+fn resolve_kind(kind: &MemberDocKind, chord: &Vec3, weight: Option<(f64, Vec3)>) -> Result<MemberKind, (String, String)> {
+    use crate::element::catenary::{GivenTension, rest_length_for};
+    let drawn = chord.norm();
     let positive = |what: &str, v: f64, unit: &str| -> Result<f64, (String, String)> {
         if v.is_finite() && v > 0.0 {
             Ok(v)
@@ -440,21 +499,40 @@ fn resolve_kind(kind: &MemberDocKind, drawn: f64) -> Result<MemberKind, (String,
             Err((format!("{what} {v} {unit} is not allowed"), format!("give a positive {what}")))
         }
     };
+    let finite_force = |t: f64| -> Result<f64, (String, String)> {
+        if t.is_finite() {
+            Ok(t)
+        } else {
+            Err(("pretension is not finite".into(), "give a finite force in newtons".into()))
+        }
+    };
     match *kind {
         MemberDocKind::Cable { ea, rest } | MemberDocKind::Strut { ea, rest } => {
             let ea = positive("EA", ea, "N")?;
             let is_cable = matches!(kind, MemberDocKind::Cable { .. });
+            // The cable's vertical plane and weight, when it sags.
+            let sag = weight.filter(|(m, g)| is_cable && *m > 0.0 && g.norm() > 0.0).map(|(m, g)| {
+                let up = -g / g.norm();
+                let lz = chord.dot(&up);
+                let lx = (chord - up * lz).norm();
+                (m * g.norm(), lx, lz)
+            });
             let l0 = match rest {
                 Rest::AsDrawn => drawn,
                 Rest::Length(l) => positive("unstressed length", l, "m")?,
-                Rest::Tension(t) => {
-                    if !t.is_finite() {
-                        return Err(("pretension is not finite".into(), "give a finite force in newtons".into()));
-                    }
+                Rest::Tension(t) | Rest::Horizontal(t) => {
+                    let t = finite_force(t)?;
+                    let horizontal = matches!(rest, Rest::Horizontal(_));
                     if is_cable && t < 0.0 {
                         return Err((
                             format!("pretension {t} N is compression, which a cable cannot carry"),
                             "give a tension of 0 N or more, or use a strut".into(),
+                        ));
+                    }
+                    if horizontal && !is_cable {
+                        return Err((
+                            "a horizontal pretension is for cables".into(),
+                            "give the strut's force with Tension instead".into(),
                         ));
                     }
                     if t <= -ea {
@@ -463,7 +541,39 @@ fn resolve_kind(kind: &MemberDocKind, drawn: f64) -> Result<MemberKind, (String,
                             "reduce the compression below EA".into(),
                         ));
                     }
-                    drawn / (1.0 + t / ea)
+                    match sag {
+                        Some((q, lx, lz)) => {
+                            let given = if horizontal {
+                                GivenTension::Horizontal(t)
+                            } else {
+                                GivenTension::UpperEnd(t)
+                            };
+                            rest_length_for(ea, q, lx, lz, given).map_err(|least| {
+                                (
+                                    format!(
+                                        "pretension {t} N is less than this cable's own weight allows in the drawn geometry (at least {least:.1} N at the upper end)"
+                                    ),
+                                    "raise the pretension, or give the unstressed length instead".into(),
+                                )
+                            })?
+                        }
+                        None => {
+                            let t = if horizontal {
+                                let up = weight.map_or(Vec3::y(), |(_, g)| if g.norm() > 0.0 { -g / g.norm() } else { Vec3::y() });
+                                let lx = (chord - up * chord.dot(&up)).norm();
+                                if lx <= 1e-9 * drawn {
+                                    return Err((
+                                        "a vertical cable has no horizontal tension".into(),
+                                        "give its tension with Tension instead".into(),
+                                    ));
+                                }
+                                t * drawn / lx
+                            } else {
+                                t
+                            };
+                            drawn / (1.0 + t / ea)
+                        }
+                    }
                 }
             };
             Ok(if is_cable {
@@ -497,6 +607,12 @@ fn resolve_kind(kind: &MemberDocKind, drawn: f64) -> Result<MemberKind, (String,
                         ));
                     }
                     l0
+                }
+                Rest::Horizontal(_) => {
+                    return Err((
+                        "a horizontal pretension is for cables".into(),
+                        "give the spring's preload with Tension instead".into(),
+                    ));
                 }
             };
             Ok(MemberKind::Spring { k, l0 })

@@ -146,6 +146,9 @@ impl Param {
                 }
                 | MemberDocKind::Strut {
                     rest: Rest::Tension(t), ..
+                }
+                | MemberDocKind::Cable {
+                    rest: Rest::Horizontal(t), ..
                 } => Some(*t),
                 _ => Some(0.0),
             },
@@ -180,6 +183,10 @@ impl Param {
             Param::Pretension(id) => {
                 let m = p.members.iter_mut().find(|m| &m.id == id).ok_or_else(|| missing_member(id))?;
                 match &mut m.kind {
+                    // A cable's pretension given as its horizontal component stays so.
+                    MemberDocKind::Cable {
+                        rest: rest @ Rest::Horizontal(_), ..
+                    } => *rest = Rest::Horizontal(value),
                     MemberDocKind::Cable { rest, .. } | MemberDocKind::Spring { rest, .. } | MemberDocKind::Strut { rest, .. } => {
                         *rest = Rest::Tension(value)
                     }

@@ -14,5 +14,5 @@ mod statics;
 pub mod system;
 
 pub use path::{CriticalKind, LoadPathTrace, PathCritical, PathPoint};
-pub use result::{Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, Principal, Route, Stability, Warm, sig6};
+pub use result::{Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, Principal, Route, SagResult, Stability, Warm, sig6};
 pub use statics::{SolveError, SolveSettings, Statics};

@@ -20,7 +20,7 @@
 
 use super::stability::{Definiteness, NEUTRAL_TOLERANCE, lowest_mode, verdict_at};
 use super::statics::Statics;
-use super::system::{Evaluation, Part};
+use super::system::{Evaluation, Loading, Part};
 use crate::model::Vec3;
 
 /// How a Newton solve may move.
@@ -81,7 +81,7 @@ impl Statics<'_> {
     pub(super) fn newton(
         &self,
         u: &mut [Vec3],
-        load: &[Vec3],
+        load: &Loading,
         lambda: f64,
         mode: Mode,
         budget: usize,
@@ -106,9 +106,9 @@ impl Statics<'_> {
         for it in 0..=budget {
             let rnorm = norm(&eval.residual);
             let rel = rnorm / eval.scale;
-            let values = sys.assemble(model, u, Part::Total);
+            let values = sys.assemble(model, u, &load.gravity_at(lambda), Part::Total);
             if rel <= s.tolerance || sys.size() == 0 {
-                let (definiteness, factor) = verdict_at(sys, model, u);
+                let (definiteness, factor) = verdict_at(sys, model, u, &load.gravity_at(lambda));
                 if let Mode::Global { escape: true } = mode
                     && definiteness != Definiteness::Positive
                     && escapes < 3
@@ -116,7 +116,12 @@ impl Statics<'_> {
                         u,
                         load,
                         lambda,
-                        &sys.assemble_for_verdict(model, u, super::system::System::slack_floor(model, u)),
+                        &sys.assemble_for_verdict(
+                            model,
+                            u,
+                            &load.gravity_at(lambda),
+                            super::system::System::slack_floor(model, u, &load.gravity_at(lambda)),
+                        ),
                         &eval,
                     )
                 {
@@ -205,7 +210,7 @@ impl Statics<'_> {
                     if radius <= 1e-15 * extent {
                         // No step reduces the residual: converged to round-off, or stuck.
                         if rel <= 1e-8 {
-                            let (definiteness, factor) = verdict_at(sys, model, u);
+                            let (definiteness, factor) = verdict_at(sys, model, u, &load.gravity_at(lambda));
                             return Ok(Converged {
                                 residual: rel,
                                 definiteness,
@@ -304,7 +309,7 @@ impl Statics<'_> {
     /// Leaves a stationary point that is not a minimum along the direction of its lowest
     /// tangent eigenvalue, to whichever side lowers the potential most; `None` when neither
     /// side does.
-    fn escape(&self, u: &mut [Vec3], load: &[Vec3], lambda: f64, values: &[f64], at: &Evaluation) -> Option<Evaluation> {
+    fn escape(&self, u: &mut [Vec3], load: &Loading, lambda: f64, values: &[f64], at: &Evaluation) -> Option<Evaluation> {
         let sys = &self.system;
         let model = self.model;
         let (_, phi) = lowest_mode(sys, values);

@@ -26,7 +26,7 @@ use super::factor::Factor;
 use super::newton::{Converged, Mode, NewtonFail};
 use super::stability::{Definiteness, nearest_zero_mode, verdict, verdict_at};
 use super::statics::{SolveError, Statics};
-use super::system::Part;
+use super::system::{Loading, Part};
 use serde::Serialize;
 
 use crate::model::Vec3;
@@ -114,9 +114,7 @@ fn dot(a: &[f64], b: &[f64]) -> f64 {
 /// Arc-length continuation of one load case.
 pub(super) struct Walker<'s, 'm> {
     statics: &'s Statics<'m>,
-    load: &'s [Vec3],
-    /// The case load on the free DOFs (N).
-    f: Vec<f64>,
+    load: &'s Loading,
     /// Displacement scale of the arc-length norm (m).
     pub u_ref: f64,
     pub iterations: usize,
@@ -125,12 +123,10 @@ pub(super) struct Walker<'s, 'm> {
 }
 
 impl<'s, 'm> Walker<'s, 'm> {
-    pub fn new(statics: &'s Statics<'m>, load: &'s [Vec3], u_ref: f64) -> Self {
-        let f = statics.system.gather(load);
+    pub fn new(statics: &'s Statics<'m>, load: &'s Loading, u_ref: f64) -> Self {
         Walker {
             statics,
             load,
-            f,
             u_ref: u_ref.max(1e-9 * statics.model.extent()),
             iterations: 0,
             max_dlambda: 0.1,
@@ -141,11 +137,16 @@ impl<'s, 'm> Walker<'s, 'm> {
         dot(&a.0, &b.0) / (self.u_ref * self.u_ref) + a.1 * b.1
     }
 
-    /// A factor of `K_T` at `u` that may be indefinite (shifted by a hair at an exactly zero
-    /// pivot).
-    fn factor_at(&self, u: &[Vec3]) -> Option<(Vec<f64>, Factor)> {
+    /// `∂r/∂λ` on the free DOFs at `u`, `lambda` (the load, and how sagging cables change with it).
+    fn rate(&self, u: &[Vec3], lambda: f64) -> Vec<f64> {
+        self.statics.system.load_rate(self.statics.model, u, self.load, lambda)
+    }
+
+    /// A factor of `K_T` at `u`, `lambda` that may be indefinite (shifted by a hair at an
+    /// exactly zero pivot).
+    fn factor_at(&self, u: &[Vec3], lambda: f64) -> Option<(Vec<f64>, Factor)> {
         let sys = &self.statics.system;
-        let values = sys.assemble(self.statics.model, u, Part::Total);
+        let values = sys.assemble(self.statics.model, u, &self.load.gravity_at(lambda), Part::Total);
         let scale = sys.max_entry(&values);
         let f = sys
             .factor_indefinite(&values, 0.0)
@@ -153,9 +154,9 @@ impl<'s, 'm> Walker<'s, 'm> {
         Some((values, f))
     }
 
-    /// The unit tangent at `u`, oriented like `previous` (or with `dλ > 0` without one).
-    fn tangent(&self, factor: &Factor, previous: Option<&(Vec<f64>, f64)>) -> (Vec<f64>, f64) {
-        let mut b = self.f.clone();
+    /// The unit tangent at `u`, `lambda`, oriented like `previous` (or with `dλ > 0` without one).
+    fn tangent(&self, u: &[Vec3], lambda: f64, factor: &Factor, previous: Option<&(Vec<f64>, f64)>) -> (Vec<f64>, f64) {
+        let mut b = self.rate(u, lambda);
         factor.solve_in_place(&mut b);
         let mut t = (b, 1.0);
         let len = self.sdot(&t, &t).sqrt();
@@ -174,9 +175,9 @@ impl<'s, 'm> Walker<'s, 'm> {
 
     /// The path point at equilibrium `u`, `lambda`.
     pub fn point(&self, u: Vec<Vec3>, lambda: f64, previous: Option<&(Vec<f64>, f64)>, iterations: usize) -> Option<Point> {
-        let (_, factor) = self.factor_at(&u)?;
-        let (definiteness, _) = verdict_at(&self.statics.system, self.statics.model, &u);
-        let tangent = self.tangent(&factor, previous);
+        let (_, factor) = self.factor_at(&u, lambda)?;
+        let (definiteness, _) = verdict_at(&self.statics.system, self.statics.model, &u, &self.load.gravity_at(lambda));
+        let tangent = self.tangent(&u, lambda, &factor, previous);
         Some(Point {
             u,
             lambda,
@@ -231,10 +232,10 @@ impl<'s, 'm> Walker<'s, 'm> {
                 return None;
             }
             self.iterations += 1;
-            let (_, factor) = self.factor_at(&u)?;
+            let (_, factor) = self.factor_at(&u, lambda)?;
             let mut a: Vec<f64> = eval.residual.iter().map(|r| -r).collect();
             factor.solve_in_place(&mut a);
-            let mut b = self.f.clone();
+            let mut b = self.rate(&u, lambda);
             factor.solve_in_place(&mut b);
             let t = &from.tangent;
             let den = dot(&t.0, &b) / (self.u_ref * self.u_ref) + t.1;
@@ -281,7 +282,7 @@ impl<'s, 'm> Walker<'s, 'm> {
             (CriticalKind::Bifurcation, 0.5 * (p_lo.lambda + p_hi.lambda))
         };
         let sys = &self.statics.system;
-        let values = sys.assemble(self.statics.model, &p_hi.u, Part::Total);
+        let values = sys.assemble(self.statics.model, &p_hi.u, &self.load.gravity_at(p_hi.lambda), Part::Total);
         let mode = nearest_zero_mode(sys, &values).map_or_else(|| p_hi.tangent.0.clone(), |(_, v)| v);
         Critical {
             kind,
@@ -307,23 +308,21 @@ impl Statics<'_> {
     /// is positive (above round-off of its terms) at each. Convex along the line, the
     /// line-constrained minimum moves continuously from one end to the other as the load
     /// grows: the step cannot have snapped along its own direction.
-    fn convex_along(&self, a: &[Vec3], b: &[Vec3], samples: usize) -> bool {
+    fn convex_along(&self, (a, la): (&[Vec3], f64), (b, lb): (&[Vec3], f64), load: &Loading, samples: usize) -> bool {
         let model = self.model;
         let d: Vec<Vec3> = a.iter().zip(b).map(|(x, y)| y - x).collect();
         (0..=samples).all(|k| {
             let s = k as f64 / samples as f64;
             let at: Vec<Vec3> = a.iter().zip(&d).map(|(x, dx)| x + dx * s).collect();
+            let gravity = load.gravity_at(la + (lb - la) * s);
             let (mut curvature, mut size) = (0.0, 0.0);
             for m in &model.members {
                 let [i, j] = m.ends;
-                let v = super::system::member_vector(model, m, &at);
-                let l = v.norm();
-                if l.is_nan() || l <= 0.0 {
+                let Some(r) = super::system::member_response(model, m, &at, &gravity) else {
                     return false;
-                }
+                };
                 let dm = d[j] - d[i];
-                let (ke, kg) = m.kind.tangent_blocks(&(v / l), l);
-                let (ce, cg) = (dm.dot(&(ke * dm)), dm.dot(&(kg * dm)));
+                let (ce, cg) = (dm.dot(&(r.elastic * dm)), dm.dot(&(r.geometric * dm)));
                 curvature += ce + cg;
                 size += ce.abs() + cg.abs();
             }
@@ -334,14 +333,14 @@ impl Statics<'_> {
     /// True when the tangent is positive definite at the given fractions of the straight
     /// segment between displacements `a` and `b` (always true for a step too small to move
     /// any node by a millionth of the rig's size).
-    fn stable_along(&self, a: &[Vec3], b: &[Vec3], fractions: &[f64]) -> bool {
+    fn stable_along(&self, (a, la): (&[Vec3], f64), (b, lb): (&[Vec3], f64), load: &Loading, fractions: &[f64]) -> bool {
         let step = a.iter().zip(b).map(|(x, y)| (y - x).norm()).fold(0.0, f64::max);
         if step <= 1e-6 * self.model.extent() {
             return true;
         }
         fractions.iter().all(|&s| {
             let at: Vec<Vec3> = a.iter().zip(b).map(|(x, y)| x + (y - x) * s).collect();
-            let values = self.system.assemble(self.model, &at, Part::Total);
+            let values = self.system.assemble(self.model, &at, &load.gravity_at(la + (lb - la) * s), Part::Total);
             verdict(&self.system, &values).0 == Definiteness::Positive
         })
     }
@@ -349,10 +348,10 @@ impl Statics<'_> {
     /// Follows the load from the stable state `start` at load factor `from` (the unloaded
     /// state, or a small load for a rig that is a mechanism unloaded; with its Newton result
     /// `at_start`) to the full load.
-    pub(super) fn load_path(&self, start: Vec<Vec3>, at_start: Converged, from: f64, load: &[Vec3], total: &mut usize) -> PathEnd {
+    pub(super) fn load_path(&self, start: Vec<Vec3>, at_start: Converged, from: f64, load: &Loading, total: &mut usize) -> PathEnd {
         let sys = &self.system;
         let model = self.model;
-        let f = sys.gather(load);
+        let mut f = sys.load_rate(model, &start, load, from);
         let Some(factor) = at_start.factor.as_ref() else {
             return PathEnd::Stuck {
                 load_factor: 0.0,
@@ -388,19 +387,23 @@ impl Statics<'_> {
             let accepted = match outcome {
                 Ok(conv) if conv.definiteness == Definiteness::Positive => match conv.factor.as_ref() {
                     Some(fac) => {
-                        let (t_new, c_new) = self.compliance(fac, &f);
+                        let f_new = sys.load_rate(model, &trial, load, target);
+                        let (t_new, c_new) = self.compliance(fac, &f_new);
                         let du: Vec<f64> = sys.gather(&trial).iter().zip(sys.gather(&u)).map(|(a, b)| a - b).collect();
-                        let work = dot(&f, &du) / dl;
+                        let work = 0.5 * (dot(&f, &du) + dot(&f_new, &du)) / dl;
                         let bound = (1.0 + SECANT_EXCESS) * c.max(c_new);
                         let tiny = 1e-12 * (c.abs() + c_new.abs()) + 1e-300;
                         // A jump to another branch crosses the unstable region between the
                         // two basins: along the step the potential must be convex in the
                         // step's own direction (at 32 points, cheap), and the rig stable at
                         // its mid-point (one factorisation).
-                        let between_stable = self.convex_along(&u, &trial, 32) && self.stable_along(&u, &trial, &[0.5]);
+                        let (from_here, to_there) = ((u.as_slice(), lambda), (trial.as_slice(), target));
+                        let between_stable =
+                            self.convex_along(from_here, to_there, load, 32) && self.stable_along(from_here, to_there, load, &[0.5]);
                         if work >= -tiny && work <= bound + tiny && between_stable {
                             t = t_new;
                             c = c_new;
+                            f = f_new;
                             Some(conv)
                         } else {
                             None
@@ -437,7 +440,6 @@ impl Statics<'_> {
                 }
             }
         }
-        let _ = model;
         PathEnd::Reached {
             u,
             converged: state,
@@ -447,7 +449,7 @@ impl Statics<'_> {
 
     /// Arc-length continuation from the stable state `u` at `lambda` (with load-path tangent
     /// `t = K⁻¹f`) to the full load, or to the first critical point.
-    fn continue_by_arc(&self, u: Vec<Vec3>, lambda: f64, t: &[f64], load: &[Vec3], total: &mut usize, steps: usize) -> PathEnd {
+    fn continue_by_arc(&self, u: Vec<Vec3>, lambda: f64, t: &[f64], load: &Loading, total: &mut usize, steps: usize) -> PathEnd {
         let mut walker = Walker::new(self, load, norm(t));
         let Some(mut here) = walker.point(u, lambda, None, 0) else {
             return PathEnd::Stuck {
@@ -563,7 +565,7 @@ impl Statics<'_> {
         if model.members.is_empty() {
             return Err(SolveError::NothingToSolve);
         }
-        let load = model.case_forces(case);
+        let load = Loading::of(model, case);
         let mut iterations = 0;
         let mut u = vec![Vec3::zeros(); model.nodes.len()];
         let start = match self.newton(&mut u, &load, 0.0, Mode::Local { strict: false }, 60, &mut iterations) {
@@ -576,7 +578,7 @@ impl Statics<'_> {
             Err(NewtonFail::Runaway { node, direction }) => return Err(self.mechanism(node, direction)),
             Err(NewtonFail::Cancelled) => return Err(SolveError::Cancelled { iterations }),
         };
-        let f = self.system.gather(&load);
+        let f = self.system.load_rate(model, &u, &load, 0.0);
         let u_ref = match start.factor.as_ref() {
             Some(fac) => norm(&self.compliance(fac, &f).0),
             None => 1.0,

@@ -12,7 +12,7 @@
 //! quadratic model is poor. Newton then finishes from the state it reaches.
 
 use super::statics::Statics;
-use super::system::member_vector;
+use super::system::{Loading, member_vector};
 use crate::model::Vec3;
 
 /// How relaxation ended.
@@ -36,7 +36,7 @@ fn norm(v: &[f64]) -> f64 {
 impl Statics<'_> {
     /// Relaxes `u` under `lambda` × `load` until the relative residual is at most `target`,
     /// for at most `budget` explicit steps.
-    pub(super) fn relax(&self, u: &mut [Vec3], load: &[Vec3], lambda: f64, target: f64, budget: usize) -> Relaxed {
+    pub(super) fn relax(&self, u: &mut [Vec3], load: &Loading, lambda: f64, target: f64, budget: usize) -> Relaxed {
         let model = self.model;
         let sys = &self.system;
         let n = sys.size();
@@ -49,7 +49,7 @@ impl Statics<'_> {
                 if self.cancelled() {
                     return Relaxed::Cancelled;
                 }
-                self.fictitious_masses(u, &mut mass);
+                self.fictitious_masses(u, &load.gravity_at(lambda), &mut mass);
             }
             let Some(eval) = sys.evaluate(model, u, load, lambda) else {
                 return Relaxed::Budget;
@@ -84,14 +84,15 @@ impl Statics<'_> {
     /// orientation of the members (`√3 k_a + 2|N|/L` per member end, each cable counted taut),
     /// so neither a member turning nor a slack cable becoming taut between updates can make a
     /// step unstable.
-    fn fictitious_masses(&self, u: &[Vec3], mass: &mut [f64]) {
+    fn fictitious_masses(&self, u: &[Vec3], gravity: &Vec3, mass: &mut [f64]) {
         let model = self.model;
         let sys = &self.system;
         let mut row = vec![0.0; u.len()];
         for m in &model.members {
             let [a, b] = m.ends;
             let l = member_vector(model, m, u).norm().max(1e-300);
-            let g = m.kind.state(l).force.abs() / l;
+            let force = super::system::member_response(model, m, u, gravity).map_or(0.0, |r| r.force);
+            let g = force.abs() / l;
             // The element couples two nodes: each end's row sees the block twice.
             let s = 2.0 * (3f64.sqrt() * m.kind.rate() + 2.0 * g);
             row[a] += s;
@@ -113,7 +114,7 @@ impl Statics<'_> {
     /// ones, each step a Newton solve from the last (a continuation in the unstressed lengths,
     /// as a rigger pays out rope). Returns the displacements at the real lengths, or `None`
     /// when no cable is slack, a step cannot be made or the iterations reach `cap` in all.
-    pub(super) fn pay_out(&self, start: &[Vec3], load: &[Vec3], lambda: f64, cap: usize, total: &mut usize) -> Option<Vec<Vec3>> {
+    pub(super) fn pay_out(&self, start: &[Vec3], load: &Loading, lambda: f64, cap: usize, total: &mut usize) -> Option<Vec<Vec3>> {
         use super::newton::Mode;
         use crate::element::MemberKind;
         let model = self.model;

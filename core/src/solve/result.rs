@@ -77,6 +77,34 @@ pub struct MemberResult {
     pub strain: f64,
     /// True for a slack cable.
     pub slack: bool,
+    /// For a cable that sags under its own weight: its tensions, sag and curve. Its `force` is
+    /// then its largest tension and its `strain` the mean strain.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub sag: Option<SagResult>,
+}
+
+/// What a cable that sags under its own weight (an elastic catenary) does in an equilibrium.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct SagResult {
+    /// Tension at end a and at end b (N); the larger is the member's force.
+    pub tension_a: f64,
+    pub tension_b: f64,
+    /// Horizontal component of the tension, the same all along (N).
+    pub horizontal: f64,
+    /// Largest distance of the cable from its chord (m).
+    pub sag: f64,
+    /// Vertical distance below the chord half-way across the horizontal span (m).
+    pub mid_span_sag: f64,
+    /// Angle of the cable above the horizontal where it leaves end a, and where it meets end b
+    /// (rad; positive rising towards b).
+    pub angle_a: f64,
+    pub angle_b: f64,
+    /// Length of the stretched cable along its curve (m).
+    pub stretched_length: f64,
+    /// Weight of the cable in this load case (N).
+    pub weight: f64,
+    /// The curve, end a to end b (m), for drawing.
+    pub curve: Vec<Vec3>,
 }
 
 /// A node held at a prescribed position, and the force needed to hold it.

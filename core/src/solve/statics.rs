@@ -29,7 +29,7 @@ use super::path::{Critical, CriticalKind, PathEnd, Walker};
 use super::relax::Relaxed;
 use super::result::{Equilibrium, Hold, MemberResult, NodeResult, NodeStiffness, Principal, Route, Stability, Warm, sig6};
 use super::stability::{Definiteness, lowest_mode, verdict_at};
-use super::system::{DofMap, Part, System, member_vector};
+use super::system::{DofMap, Loading, Part, System, member_response};
 use crate::model::{Model, Vec3};
 
 /// Settings of the equilibrium solver.
@@ -285,7 +285,7 @@ impl<'m> Statics<'m> {
         if model.members.is_empty() {
             return Err(SolveError::NothingToSolve);
         }
-        let load = model.case_forces(case);
+        let load = Loading::of(model, case);
         let start = self.start(hold);
         let mut iterations = 0;
         let cancelled = |iterations| SolveError::Cancelled { iterations };
@@ -371,7 +371,7 @@ impl<'m> Statics<'m> {
     fn reach(
         &self,
         start: &[Vec3],
-        load: &[Vec3],
+        load: &Loading,
         lambda: f64,
         escape: bool,
         budget: usize,
@@ -413,7 +413,7 @@ impl<'m> Statics<'m> {
         &self,
         case: usize,
         start: &[Vec3],
-        load: &[Vec3],
+        load: &Loading,
         hold: Option<(usize, Vec3)>,
         iterations: &mut usize,
     ) -> Result<Equilibrium, SolveError> {
@@ -479,7 +479,7 @@ impl<'m> Statics<'m> {
         &self,
         case: usize,
         c: Critical,
-        load: &[Vec3],
+        load: &Loading,
         hold: Option<(usize, Vec3)>,
         iterations: &mut usize,
     ) -> Result<Equilibrium, SolveError> {
@@ -529,7 +529,7 @@ impl<'m> Statics<'m> {
 
     /// Traces the path on from beyond a limit point until it crosses the full load at a stable
     /// state; the state and its Newton result.
-    fn trace_to_full_load(&self, c: &Critical, load: &[Vec3], iterations: &mut usize) -> Option<(Vec<Vec3>, Converged)> {
+    fn trace_to_full_load(&self, c: &Critical, load: &Loading, iterations: &mut usize) -> Option<(Vec<Vec3>, Converged)> {
         let t_ref = c.beyond.tangent.0.iter().map(|x| x * x).sum::<f64>().sqrt();
         let mut walker = Walker::new(self, load, 1.0);
         walker.u_ref = 1.0;
@@ -574,14 +574,15 @@ impl<'m> Statics<'m> {
         }
     }
 
-    fn finish(&self, case: usize, u: Vec<Vec3>, load: &[Vec3], c: Converged, work: Work, hold: Option<(usize, Vec3)>) -> Equilibrium {
+    fn finish(&self, case: usize, u: Vec<Vec3>, load: &Loading, c: Converged, work: Work, hold: Option<(usize, Vec3)>) -> Equilibrium {
         let Work { iterations, steps, route } = work;
         let model = self.model;
-        let internal = System::internal(model, &u).expect("converged state has positive lengths");
+        let gravity = load.gravity;
+        let internal = System::internal(model, &u, &gravity).expect("converged state has positive lengths");
         let f = &internal.force;
         let stability = match c.definiteness {
             Definiteness::Positive => Stability::Stable,
-            other => self.diagnose(&u, other),
+            other => self.diagnose(&u, &gravity, other),
         };
         let nodes = model
             .nodes
@@ -590,7 +591,7 @@ impl<'m> Statics<'m> {
             .map(|(i, n)| {
                 let held_here = hold.is_some_and(|(h, _)| h == i);
                 let reaction = (model.has_reaction(i) && !held_here).then(|| {
-                    let mut r = f[i] - load[i];
+                    let mut r = f[i] - load.nodal[i];
                     for a in 0..3 {
                         if !n.support.fixed[a] {
                             r[a] = 0.0;
@@ -610,22 +611,25 @@ impl<'m> Statics<'m> {
             .members
             .iter()
             .map(|m| {
-                let l = member_vector(model, m, &u).norm();
-                let st = m.kind.state(l);
+                let r = member_response(model, m, &u, &gravity).expect("converged state has positive lengths");
+                let l = super::system::member_vector(model, m, &u).norm();
                 let l0 = m.kind.rest_length();
+                let sag = r.sag.as_ref().map(|s| sag_result(s, model.nodes[m.ends[0]].position + u[m.ends[0]]));
+                let stretched = sag.as_ref().map_or(l, |s| s.stretched_length);
                 MemberResult {
                     id: m.id.clone(),
                     kind: m.kind.class(),
-                    force: st.force,
+                    force: r.force,
                     length: l,
                     unstressed_length: l0,
-                    strain: if l0 > 0.0 { (l - l0) / l0 } else { l - l0 },
-                    slack: st.slack,
+                    strain: if l0 > 0.0 { (stretched - l0) / l0 } else { l - l0 },
+                    slack: r.slack,
+                    sag,
                 }
             })
             .collect();
         let hold = hold.map(|(node, position)| {
-            let mut force = f[node] - load[node];
+            let mut force = f[node] - load.nodal[node];
             // Directions the support already holds are part of its reaction, not the hand's.
             for a in 0..3 {
                 if model.nodes[node].support.fixed[a] {
@@ -647,18 +651,25 @@ impl<'m> Statics<'m> {
         }
     }
 
-    /// The stability verdict at displacements `u` (the one used for every equilibrium).
-    pub fn stability_at(&self, u: &[Vec3]) -> Stability {
-        match verdict_at(&self.system, self.model, u).0 {
+    /// The stability verdict at displacements `u` under gravitational acceleration `gravity`
+    /// (the load case's at full load; it weighs the sagging cables): the one verdict used for
+    /// every equilibrium.
+    pub fn stability_at(&self, u: &[Vec3], gravity: &Vec3) -> Stability {
+        match verdict_at(&self.system, self.model, u, gravity).0 {
             Definiteness::Positive => Stability::Stable,
-            other => self.diagnose(u, other),
+            other => self.diagnose(u, gravity, other),
         }
     }
 
+    /// The gravitational acceleration an equilibrium was found under (its case's, at full load).
+    pub fn gravity_of(&self, eq: &Equilibrium) -> Vec3 {
+        self.model.case_index(&eq.case).map_or(self.model.gravity, |c| self.model.case_gravity(c))
+    }
+
     /// Names the node and direction of the lowest tangent-stiffness mode.
-    fn diagnose(&self, u: &[Vec3], d: Definiteness) -> Stability {
+    fn diagnose(&self, u: &[Vec3], gravity: &Vec3, d: Definiteness) -> Stability {
         let sys = &self.system;
-        let values = sys.assemble_for_verdict(self.model, u, System::slack_floor(self.model, u));
+        let values = sys.assemble_for_verdict(self.model, u, gravity, System::slack_floor(self.model, u, gravity));
         let (eig, vec) = lowest_mode(sys, &values);
         let (node, direction) = self.dominant_node(&vec);
         if d == Definiteness::Indefinite && eig < 0.0 {
@@ -717,9 +728,10 @@ impl<'m> Statics<'m> {
             return Err(SolveError::NotStable(eq.stability.describe()));
         }
         let u = eq.displacements();
-        let kt = sys.assemble(model, &u, Part::Total);
-        if verdict_at(sys, model, &u).0 != Definiteness::Positive {
-            return Err(SolveError::NotStable(self.stability_at(&u).describe()));
+        let gravity = self.gravity_of(eq);
+        let kt = sys.assemble(model, &u, &gravity, Part::Total);
+        if verdict_at(sys, model, &u, &gravity).0 != Definiteness::Positive {
+            return Err(SolveError::NotStable(self.stability_at(&u, &gravity).describe()));
         }
         let factor = sys
             .factor(&kt, 0.0)
@@ -746,7 +758,7 @@ impl<'m> Statics<'m> {
             .map(|j| (0..n).map(|r| (0..m).map(|k| cols[k][r] * total[(k, j)]).sum()).collect())
             .collect();
         let project = |part: Part| -> DMatrix<f64> {
-            let v = sys.assemble(model, &u, part);
+            let v = sys.assemble(model, &u, &gravity, part);
             let ku: Vec<Vec<f64>> = fields.iter().map(|col| sys.mul(&v, col)).collect();
             DMatrix::from_fn(m, m, |i, j| fields[i].iter().zip(&ku[j]).map(|(a, b)| a * b).sum())
         };
@@ -802,5 +814,32 @@ mod tests {
         flag.store(false, Ordering::Relaxed);
         let plain = Statics::new(&model).solve(0, None).unwrap();
         assert_eq!(statics.solve(0, None).unwrap(), plain);
+    }
+}
+
+/// Points drawn along a sagging cable.
+const CURVE_POINTS: usize = 24;
+
+/// A sagging cable's results from its solved catenary, end a at `at_a` (m).
+fn sag_result(s: &crate::element::response::Sag, at_a: Vec3) -> super::result::SagResult {
+    let (c, h) = (&s.cable, &s.hang);
+    let vb = h.v + c.q * c.l0;
+    let curve = (0..=CURVE_POINTS)
+        .map(|k| {
+            let (x, z) = c.point_at(h, c.l0 * k as f64 / CURVE_POINTS as f64);
+            at_a + s.horizontal * x + s.up * z
+        })
+        .collect();
+    super::result::SagResult {
+        tension_a: h.h.hypot(h.v),
+        tension_b: h.h.hypot(vb),
+        horizontal: h.h,
+        sag: c.sag(h).0,
+        mid_span_sag: c.mid_span_sag(h),
+        angle_a: h.v.atan2(h.h),
+        angle_b: vb.atan2(h.h),
+        stretched_length: c.stretched_length(h),
+        weight: c.q * c.l0,
+        curve,
     }
 }

@@ -15,6 +15,8 @@
 
 use nalgebra::Matrix3;
 
+use crate::element::response::{Response, load_rate, respond};
+
 pub use super::dofs::DofMap;
 use super::factor::{Analysis, Factor};
 use crate::model::{Member, Model, Vec3};
@@ -77,6 +79,37 @@ pub fn member_vector(model: &Model, m: &Member, disp: &[Vec3]) -> Vec3 {
 /// Current length of every member (m).
 pub fn member_lengths(model: &Model, disp: &[Vec3]) -> Vec<f64> {
     model.members.iter().map(|m| member_vector(model, m, disp).norm()).collect()
+}
+
+/// The response of member `m` at displacements `disp` under gravitational acceleration
+/// `gravity` (m/s², the case's times the load factor), or `None` when it has collapsed.
+#[inline]
+pub fn member_response(model: &Model, m: &Member, disp: &[Vec3], gravity: &Vec3) -> Option<Response> {
+    respond(&m.kind, m.mass_per_length, &member_vector(model, m, disp), gravity, &disp[m.ends[0]])
+}
+
+/// The loads of one load case at full load: the nodal forces (the weights of the node masses
+/// and the point loads, N) and the gravitational acceleration that weighs the cables which sag
+/// under their own weight (m/s²). Both scale with the load factor.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Loading {
+    pub nodal: Vec<Vec3>,
+    pub gravity: Vec3,
+}
+
+impl Loading {
+    /// The loading of case `case` of `model`.
+    pub fn of(model: &Model, case: usize) -> Self {
+        Loading {
+            nodal: model.case_forces(case),
+            gravity: model.case_gravity(case),
+        }
+    }
+
+    /// Gravitational acceleration at load factor `lambda`.
+    pub fn gravity_at(&self, lambda: f64) -> Vec3 {
+        self.gravity * lambda
+    }
 }
 
 impl System {
@@ -173,38 +206,33 @@ impl System {
         }
     }
 
-    /// Internal nodal forces, force magnitudes and strain energy at displacements `disp`.
-    /// Returns `None` when a member has collapsed to zero length or a value overflows.
-    pub fn internal(model: &Model, disp: &[Vec3]) -> Option<Internal> {
+    /// Internal nodal forces, force magnitudes and energy at displacements `disp` under
+    /// gravitational acceleration `gravity` (for the cables that sag). Returns `None` when a
+    /// member has collapsed to zero length or a value overflows.
+    pub fn internal(model: &Model, disp: &[Vec3], gravity: &Vec3) -> Option<Internal> {
         let mut force = vec![Vec3::zeros(); disp.len()];
         let mut magnitude = vec![Vec3::zeros(); disp.len()];
         let mut energy = 0.0;
         for m in &model.members {
             let [a, b] = m.ends;
-            let d = member_vector(model, m, disp);
-            let l = d.norm();
-            if !(l > 0.0 && l.is_finite()) {
-                return None;
-            }
-            let s = m.kind.state(l);
-            let fe = d * (s.force / l);
-            force[a] -= fe;
-            force[b] += fe;
-            let fa = fe.abs();
-            magnitude[a] += fa;
-            magnitude[b] += fa;
-            energy += s.energy;
+            let r = member_response(model, m, disp, gravity)?;
+            force[a] += r.end_a;
+            force[b] += r.end_b;
+            magnitude[a] += r.end_a.abs();
+            magnitude[b] += r.end_b.abs();
+            energy += r.energy;
         }
         energy.is_finite().then_some(Internal { force, magnitude, energy })
     }
 
     /// Energy, residual and scale at displacements `disp` under `lambda` × the load `load`.
-    pub fn evaluate(&self, model: &Model, disp: &[Vec3], load: &[Vec3], lambda: f64) -> Option<Evaluation> {
+    pub fn evaluate(&self, model: &Model, disp: &[Vec3], loading: &Loading, lambda: f64) -> Option<Evaluation> {
         let Internal {
             force,
             magnitude,
             mut energy,
-        } = Self::internal(model, disp)?;
+        } = Self::internal(model, disp, &loading.gravity_at(lambda))?;
+        let load = &loading.nodal;
         let mut residual = vec![0.0; self.size()];
         let mut scale2 = 0.0;
         let mut load2 = 0.0;
@@ -230,23 +258,38 @@ impl System {
         })
     }
 
-    /// Assembles the chosen part of the tangent stiffness at `disp` into upper-triangle values.
-    pub fn assemble(&self, model: &Model, disp: &[Vec3], part: Part) -> Vec<f64> {
+    /// Assembles the chosen part of the tangent stiffness at `disp` under gravitational
+    /// acceleration `gravity` (the case's times the load factor) into upper-triangle values.
+    pub fn assemble(&self, model: &Model, disp: &[Vec3], gravity: &Vec3, part: Part) -> Vec<f64> {
+        self.assemble_members(model, disp, gravity, part, None)
+    }
+
+    /// The tangent the stability verdict judges: as [`System::assemble`] with [`Part::Total`],
+    /// but a straight cable whose tension is at most `floor` (N) counts as slack. A cable at
+    /// zero tension resists being stretched but not being slackened, so it cannot make a state
+    /// stable in the direction that slackens it; its one-sided stiffness is left out.
+    pub fn assemble_for_verdict(&self, model: &Model, disp: &[Vec3], gravity: &Vec3, floor: f64) -> Vec<f64> {
+        self.assemble_members(model, disp, gravity, Part::Total, Some(floor))
+    }
+
+    fn assemble_members(&self, model: &Model, disp: &[Vec3], gravity: &Vec3, part: Part, floor: Option<f64>) -> Vec<f64> {
         let mut values = vec![0.0; self.nonzeros()];
         for (m, scatter) in model.members.iter().zip(&self.scatter) {
             if scatter.is_empty() {
                 continue;
             }
-            let d = member_vector(model, m, disp);
-            let l = d.norm();
-            if l.partial_cmp(&0.0) != Some(std::cmp::Ordering::Greater) {
+            let Some(r) = member_response(model, m, disp, gravity) else { continue };
+            if let Some(floor) = floor
+                && r.sag.is_none()
+                && matches!(m.kind, crate::element::MemberKind::Cable { .. })
+                && r.force <= floor
+            {
                 continue;
             }
-            let (ke, kg) = m.kind.tangent_blocks(&(d / l), l);
             let k: Matrix3<f64> = match part {
-                Part::Total => ke + kg,
-                Part::Elastic => ke,
-                Part::Geometric => kg,
+                Part::Total => r.elastic + r.geometric,
+                Part::Elastic => r.elastic,
+                Part::Geometric => r.geometric,
             };
             for &(li, lj, s) in scatter {
                 let (li, lj) = (li as usize, lj as usize);
@@ -257,43 +300,30 @@ impl System {
         values
     }
 
-    /// The tangent the stability verdict judges: as [`System::assemble`] with [`Part::Total`],
-    /// but a cable whose tension is at most `floor` (N) counts as slack. A cable at zero
-    /// tension resists being stretched but not being slackened, so it cannot make a state
-    /// stable in the direction that slackens it; its one-sided stiffness is left out.
-    pub fn assemble_for_verdict(&self, model: &Model, disp: &[Vec3], floor: f64) -> Vec<f64> {
-        let mut values = vec![0.0; self.nonzeros()];
-        for (m, scatter) in model.members.iter().zip(&self.scatter) {
-            if scatter.is_empty() {
-                continue;
-            }
-            let d = member_vector(model, m, disp);
-            let l = d.norm();
-            if l.partial_cmp(&0.0) != Some(std::cmp::Ordering::Greater) {
-                continue;
-            }
-            if matches!(m.kind, crate::element::MemberKind::Cable { .. }) && m.kind.state(l).force <= floor {
-                continue;
-            }
-            let (ke, kg) = m.kind.tangent_blocks(&(d / l), l);
-            let k = ke + kg;
-            for &(li, lj, s) in scatter {
-                let (li, lj) = (li as usize, lj as usize);
-                let sign = if (li < 3) == (lj < 3) { 1.0 } else { -1.0 };
-                values[s] += sign * k[(li % 3, lj % 3)];
+    /// Rate of change of the residual's load with the load factor on the free DOFs (N):
+    /// the nodal load, less how the internal forces of sagging cables change as their weight
+    /// grows (zero for rigs without them). The right-hand side of load-path tangents.
+    pub fn load_rate(&self, model: &Model, disp: &[Vec3], loading: &Loading, lambda: f64) -> Vec<f64> {
+        let mut rate = loading.nodal.clone();
+        for m in &model.members {
+            if m.mass_per_length > 0.0 && matches!(m.kind, crate::element::MemberKind::Cable { .. }) {
+                let (ra, rb) = load_rate(&m.kind, m.mass_per_length, &member_vector(model, m, disp), &loading.gravity, lambda);
+                rate[m.ends[0]] -= ra;
+                rate[m.ends[1]] -= rb;
             }
         }
-        values
+        self.gather(&rate)
     }
 
     /// Tension below which a cable counts as slack for the verdict (N): a billionth of the
     /// larger of the largest member force and the largest nodal load of any case — the
     /// resolution of forces at the solver's tolerance.
-    pub fn slack_floor(model: &Model, disp: &[Vec3]) -> f64 {
+    pub fn slack_floor(model: &Model, disp: &[Vec3], gravity: &Vec3) -> f64 {
         let members = model
             .members
             .iter()
-            .map(|m| m.kind.state(member_vector(model, m, disp).norm()).force.abs())
+            .filter_map(|m| member_response(model, m, disp, gravity))
+            .map(|r| r.force.abs())
             .fold(0.0, f64::max);
         let loads = (0..model.cases.len())
             .flat_map(|c| model.case_forces(c))
@@ -404,7 +434,7 @@ mod tests {
     fn columns_split_over_threads_solve_as_in_one_call() {
         let (model, sys, disp) = net();
         let factor = sys
-            .factor(&sys.assemble(&model, &disp, Part::Total), 0.0)
+            .factor(&sys.assemble(&model, &disp, &Vec3::zeros(), Part::Total), 0.0)
             .expect("positive definite");
         let (n, ncols) = (sys.size(), 5);
         let rhs: Vec<f64> = (0..n * ncols).map(|i| ((i * 7) % 13) as f64 - 6.0).collect();
@@ -418,7 +448,7 @@ mod tests {
             assert!(worst <= 1e-12 * size, "{threads} threads: {worst}");
         }
         // And the answer solves the system: K x = b, column by column.
-        let k = sys.dense(&sys.assemble(&model, &disp, Part::Total));
+        let k = sys.dense(&sys.assemble(&model, &disp, &Vec3::zeros(), Part::Total));
         let x = nalgebra::DMatrix::from_column_slice(n, ncols, &one);
         let b = nalgebra::DMatrix::from_column_slice(n, ncols, &rhs);
         assert!((k * x - &b).amax() < 1e-9 * b.amax());
@@ -429,7 +459,7 @@ mod tests {
     #[test]
     fn indefinite_factor_solves_and_counts_negative_eigenvalues() {
         let (model, sys, disp) = net();
-        let k = sys.assemble(&model, &disp, Part::Total);
+        let k = sys.assemble(&model, &disp, &Vec3::zeros(), Part::Total);
         let dense = sys.dense(&k);
         let eig = nalgebra::SymmetricEigen::new(dense.clone()).eigenvalues;
         let mut sorted: Vec<f64> = eig.iter().copied().collect();

@@ -27,11 +27,14 @@ fn rest_text(sheet: &Sheet, i: usize, fmt: &Fmt) -> Cell {
         Some(Rest::Tension(t)) => {
             let what = if matches!(m.kind, MemberKind::Spring { .. }) {
                 "preload"
+            } else if m.sags() {
+                "upper-end pretension"
             } else {
                 "pretension"
             };
             Cell::two(format!("{what} {}", fmt.force_u(t)), format!("{word} {l0}"))
         }
+        Some(Rest::Horizontal(h)) => Cell::two(format!("horizontal pretension {}", fmt.force_u(h)), format!("{word} {l0}")),
         Some(Rest::Length(_)) => Cell::text(format!("{word} {l0}")),
         _ => Cell::two(format!("{word} {l0}"), "unstressed as drawn"),
     }

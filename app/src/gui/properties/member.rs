@@ -15,6 +15,7 @@ enum RestMode {
     AsDrawn,
     Length,
     Tension,
+    Horizontal,
 }
 
 pub(super) fn member(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
@@ -46,12 +47,17 @@ pub(super) fn member(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
             Rest::AsDrawn => RestMode::AsDrawn,
             Rest::Length(_) => RestMode::Length,
             Rest::Tension(_) => RestMode::Tension,
+            Rest::Horizontal(_) => RestMode::Horizontal,
         };
         let (len_name, force_name) = if is_spring {
             ("Free length", "Preload")
+        } else if class == "Cable" && m.mass_per_length > 0.0 {
+            // A cable with weight sags: its tension varies along it, largest at the upper end.
+            ("Unstressed length", "Pretension at upper end")
         } else {
             ("Unstressed length", "Pretension")
         };
+        let horizontal_name = "Horizontal pretension";
         let name = ui.label("Rest state").id;
         let mut new_mode = mode;
         egui::ComboBox::from_id_salt("rest-mode")
@@ -59,11 +65,15 @@ pub(super) fn member(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
                 RestMode::AsDrawn => "stress-free as drawn",
                 RestMode::Length => len_name,
                 RestMode::Tension => force_name,
+                RestMode::Horizontal => horizontal_name,
             })
             .show_ui(ui, |ui| {
                 ui.selectable_value(&mut new_mode, RestMode::AsDrawn, "stress-free as drawn");
                 ui.selectable_value(&mut new_mode, RestMode::Length, len_name);
                 ui.selectable_value(&mut new_mode, RestMode::Tension, force_name);
+                if class == "Cable" {
+                    ui.selectable_value(&mut new_mode, RestMode::Horizontal, horizontal_name);
+                }
             })
             .response
             .labelled_by(name);
@@ -74,6 +84,7 @@ pub(super) fn member(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
                 RestMode::AsDrawn => Rest::AsDrawn,
                 RestMode::Length => Rest::Length(drawn),
                 RestMode::Tension => Rest::Tension(0.0),
+                RestMode::Horizontal => Rest::Horizontal(0.0),
             };
             edit(app, format!("member-rest-mode-{i}"), move |d| {
                 set_rest(&mut d.members[i].kind, rest)
@@ -91,6 +102,13 @@ pub(super) fn member(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
                 if let Some(v) = quantity(ui, force_name, t, Quantity::Force, units) {
                     edit(app, format!("member-rest-{i}"), move |d| {
                         set_rest(&mut d.members[i].kind, Rest::Tension(v))
+                    });
+                }
+            }
+            Rest::Horizontal(t) => {
+                if let Some(v) = quantity(ui, horizontal_name, t, Quantity::Force, units) {
+                    edit(app, format!("member-rest-{i}"), move |d| {
+                        set_rest(&mut d.members[i].kind, Rest::Horizontal(v))
                     });
                 }
             }
@@ -117,6 +135,16 @@ pub(super) fn member(app: &mut RigApp, ui: &mut egui::Ui, i: usize) {
             format!("force {}", units.show(Quantity::Force, r.force))
         });
         ui.label(format!("length {}", units.show(Quantity::Length, r.length)));
+        if let Some(sag) = &r.sag {
+            ui.label(format!(
+                "sag {} (mid-span {}); tension {} to {}, horizontal {}",
+                units.show(Quantity::Length, sag.sag),
+                units.show(Quantity::Length, sag.mid_span_sag),
+                units.show(Quantity::Force, sag.tension_a.min(sag.tension_b)),
+                units.show(Quantity::Force, sag.tension_a.max(sag.tension_b)),
+                units.show(Quantity::Force, sag.horizontal),
+            ));
+        }
     }
     super::design::member_design(app, ui, i);
 }

@@ -19,6 +19,9 @@
 //! `N = EA (L − L0)/L0` and a spring `N = k (L − L0)`. A cable is slack, carries nothing and
 //! adds no stiffness when `L ≤ L0`.
 
+pub mod catenary;
+pub mod response;
+
 use nalgebra::Matrix3;
 use serde::{Deserialize, Serialize};
 
