@@ -45,7 +45,7 @@ fn vector(model: &Model, u: &[Vector3<f64>], a: usize, b: usize) -> Vector3<f64>
 }
 
 /// Relative out-of-balance force on the free directions of case `case` at displacements `u`:
-/// `‖f_int − f_ext‖ / max(‖f_ext‖, ‖Σ |member force components|‖)` over the free directions.
+/// `‖f_int − f_ext‖ / max(‖f_ext‖, ‖Σ ‖member end force‖‖)` over the free directions.
 pub fn residual(model: &Model, case: usize, u: &[Vector3<f64>]) -> f64 {
     let n = model.nodes.len();
     let mut f = vec![Vector3::zeros(); n];
@@ -55,8 +55,10 @@ pub fn residual(model: &Model, case: usize, u: &[Vector3<f64>]) -> f64 {
         let Some(r) = member_law(model, case, m, u) else { return f64::NAN };
         f[a] += r.end_a;
         f[b] += r.end_b;
-        mag[a] += r.end_a.abs();
-        mag[b] += r.end_b.abs();
+        // Round-off in a component scales with the whole end force, not with that component
+        // (a cable's end on a roller carries next to nothing along the roller).
+        mag[a] += Vector3::repeat(r.end_a.norm());
+        mag[b] += Vector3::repeat(r.end_b.norm());
     }
     let c = &model.cases[case];
     let mut ext = vec![Vector3::zeros(); n];
@@ -378,7 +380,7 @@ fn catenary(d: &Vector3<f64>, up: &Vector3<f64>, w: f64, ea: f64, l0: f64, base:
     let hvec = d - up * lz;
     let lx = hvec.norm();
     if lx <= 1e-9 * d.norm() {
-        return None;
+        return Some(vertical_cable(lz, up, w, ea, l0, base));
     }
     let horiz = hvec / lx;
     let map = |h: f64, v: f64| -> ((f64, f64), [[f64; 2]; 2]) {
@@ -471,3 +473,44 @@ fn catenary(d: &Vector3<f64>, up: &Vector3<f64>, w: f64, ea: f64, l0: f64, base:
     })
 }
 
+/// A cable on a vertical chord (`H = 0`), from the same laws with no horizontal tension: the
+/// tension at `s` is `|V + w s|` and the rise `dz/ds = sgn(V + w s)(1 + |V + w s|/EA)`, so the
+/// rise of b over a is piecewise linear in `V` and is solved in closed form — taut with its
+/// lower end pulling (`V ≥ 0` or `V_b ≤ 0`), or hanging in a loop below both ends. Across the
+/// chord `x = H ∫(1/T + 1/EA) ds`, so the stiffness there is `1/(|ln(V_b/V)|/w + L0/EA)`,
+/// and zero where the tension vanishes along the cable (a loop, or a free lower end).
+fn vertical_cable(lz: f64, up: &Vector3<f64>, w: f64, ea: f64, l0: f64, base: f64) -> MemberLaw {
+    let self_stretch = w * l0 * l0 / (2.0 * ea);
+    // V ≥ 0: the whole cable rises from a; V_b ≤ 0: the whole cable falls from a.
+    let rising = (lz - l0 - self_stretch) * ea / l0;
+    let falling = (lz + l0 - self_stretch) * ea / l0;
+    let (v, axial) = if rising >= 0.0 {
+        (rising, ea / l0)
+    } else if falling <= -w * l0 {
+        (falling, ea / l0)
+    } else {
+        let rate = 1.0 / (2.0 / w + l0 / ea);
+        ((lz - l0 - self_stretch) * rate, rate)
+    };
+    let vb = v + w * l0;
+    // Tension below a millionth of the weight counts as vanishing (an equilibrium's residual
+    // leaves a free end that much tension).
+    let tol = 1e-6 * w * l0;
+    let across = if v > tol || vb < -tol {
+        1.0 / ((vb / v).abs().ln().abs() / w + l0 / ea)
+    } else {
+        0.0
+    };
+    let block = *up * up.transpose() * axial + (Matrix3::identity() - *up * up.transpose()) * across;
+    let s0 = (-v / w).clamp(0.0, l0);
+    let int_z = (0.5 * v * l0 * l0 + w * l0.powi(3) / 6.0) / ea + 0.5 * l0 * l0 - 2.0 * s0 * l0 + s0 * s0;
+    let strain = (vb.powi(3) - v.powi(3)) / (6.0 * w * ea);
+    MemberLaw {
+        end_a: -*up * v,
+        end_b: *up * vb,
+        energy: strain + w * int_z + w * l0 * base,
+        block,
+        tension: v.abs().max(vb.abs()),
+        sagging: true,
+    }
+}

@@ -49,7 +49,10 @@ fn loaded_cable(h: f64, v: f64, w: f64, ea: f64, l0: f64, g: f64) -> Project {
     p.members.push(MemberDoc {
         id: "c".into(),
         ends: ("a".into(), "b".into()),
-        kind: MemberDocKind::Cable { ea, rest: Rest::Length(l0) },
+        kind: MemberDocKind::Cable {
+            ea,
+            rest: Rest::Length(l0),
+        },
         mass_per_length: w / g,
         design: None,
     });
@@ -73,13 +76,13 @@ fn free_end_of_a_sagging_cable_lies_where_irvines_elastic_catenary_puts_it() {
     let g = 9.81;
     // (H, V, w, EA, L0): N, N, N/m, N, m.
     let cases = [
-        (1e6, -500.0, 10.0, 1e7, 100.0),     // nearly taut: sag ≈ wL²/(8H) = 1.25 mm
+        (1e6, -500.0, 10.0, 1e7, 100.0),       // nearly taut: sag ≈ wL²/(8H) = 1.25 mm
         (2023.1664, -505.0, 10.0, 1e7, 101.0), // level, the REFERENCES check value
-        (800.0, -200.0, 10.0, 1e6, 60.0),     // inclined, lowest point inside the span
-        (300.0, 150.0, 10.0, 1e6, 60.0),      // lower end above the lowest point
-        (50.0, -500.0, 10.0, 1e7, 100.0),     // deep sag: span a fraction of the length
-        (1.0, 100.0, 10.0, 1e6, 10.0),        // nearly vertical, rising
-        (1.0, -60.0, 10.0, 1e6, 10.0),        // nearly vertical, the lowest point inside
+        (800.0, -200.0, 10.0, 1e6, 60.0),      // inclined, lowest point inside the span
+        (300.0, 150.0, 10.0, 1e6, 60.0),       // lower end above the lowest point
+        (50.0, -500.0, 10.0, 1e7, 100.0),      // deep sag: span a fraction of the length
+        (1.0, 100.0, 10.0, 1e6, 10.0),         // nearly vertical, rising
+        (1.0, -60.0, 10.0, 1e6, 10.0),         // nearly vertical, the lowest point inside
     ];
     for (h, v, w, ea, l0) in cases {
         let m = model(&loaded_cable(h, v, w, ea, l0, g));
@@ -95,10 +98,18 @@ fn free_end_of_a_sagging_cable_lies_where_irvines_elastic_catenary_puts_it() {
         );
         let t = h.hypot(v);
         let r = eq.nodes[0].reaction.unwrap();
-        assert!((r.x + h).abs() <= 1e-9 * t && (r.y + v).abs() <= 1e-9 * t, "H {h} V {v}: reaction {r:?}");
+        assert!(
+            (r.x + h).abs() <= 1e-9 * t && (r.y + v).abs() <= 1e-9 * t,
+            "H {h} V {v}: reaction {r:?}"
+        );
         // The member's reported force is its largest tension, at one of its ends.
         let tb = h.hypot(v + w * l0);
-        assert!(rel(eq.members[0].force, t.max(tb)) < 1e-9, "force {} vs {}", eq.members[0].force, t.max(tb));
+        assert!(
+            rel(eq.members[0].force, t.max(tb)) < 1e-9,
+            "force {} vs {}",
+            eq.members[0].force,
+            t.max(tb)
+        );
         let sag = eq.members[0].sag.as_ref().expect("a cable with weight reports its sag");
         assert!(rel(sag.horizontal, h) < 1e-9, "H {} vs {h}", sag.horizontal);
         assert!(rel(sag.weight, w * l0) < 1e-12);
@@ -291,5 +302,44 @@ fn anchors_of_an_inclined_span_share_its_weight_as_the_closed_form_says() {
     assert!((ra.x + h).abs() < 1e-8 * t && (ra.y + v).abs() < 1e-8 * t, "{ra:?}");
     // End b: the cable's pull (H, V + w L0) back towards a, plus the spring's 0.1 kg.
     let spring = 0.1 * g;
-    assert!((rb.x - h).abs() < 1e-8 * t && (rb.y - (v + w * l0) - spring).abs() < 1e-8 * t, "{rb:?}");
+    assert!(
+        (rb.x - h).abs() < 1e-8 * t && (rb.y - (v + w * l0) - spring).abs() < 1e-8 * t,
+        "{rb:?}"
+    );
+}
+
+/// A cable hanging on a vertical chord with a mass at its lower end: statics alone give the end
+/// tensions `T_lo = m g` and `T_hi = m g + w L0`; Hooke's law integrated along the cable gives
+/// the stretched length and the stiffness along it, `EA/L0`; and Irvine's span equation at
+/// vanishing horizontal tension, `x = H ∫ (1/T + 1/EA) ds`, gives the stiffness across it,
+/// `1/(ln(T_hi/T_lo)/w + L0/EA)` (which tends to the pendulum's `T/L` as `w → 0`). The member
+/// on the exact vertical and 1e-7 rad off it agree with these; with no tension at its
+/// free end (a cable dangling from an anchor) the stiffness across is nil.
+#[test]
+fn a_cable_on_a_vertical_chord_has_the_closed_form_forces_and_stiffness() {
+    let (ea, l0, mpl, mass, g) = (1e6, 10.0, 2.0, 5.0, 9.81);
+    let w = mpl * g;
+    let gravity = Vec3::new(0.0, 0.0, -g);
+    let kind = MemberKind::Cable { ea, l0 };
+    let (t_lo, t_hi) = (mass * g, mass * g + w * l0);
+    let drop = l0 + (t_lo * l0 + 0.5 * w * l0 * l0) / ea;
+    let across = 1.0 / ((t_hi / t_lo).ln() / w + l0 / ea);
+    assert!(rel(across, t_lo / drop) > 0.1, "the cable's weight matters here");
+    for tilt in [0.0, 1e-7] {
+        // Tilted at constant chord length (a shorter rise would slacken the cable by the tilt²).
+        let chord = Vec3::new(tilt * drop, 0.0, -drop * (1.0 - tilt * tilt).sqrt());
+        let r = respond(&kind, mpl, &chord, &gravity, &Vec3::zeros()).unwrap();
+        assert!(rel(r.end_b.z, -t_lo) < 1e-9, "lower end {} vs {t_lo} N", r.end_b.z);
+        assert!(rel(r.end_a.z, t_hi) < 1e-9, "upper end {} vs {t_hi} N", r.end_a.z);
+        assert!(rel(r.force, t_hi) < 1e-9);
+        let k = r.elastic + r.geometric;
+        assert!(rel(k[(2, 2)], ea / l0) < 1e-6, "along {} vs {} N/m", k[(2, 2)], ea / l0);
+        assert!(rel(k[(1, 1)], across) < 1e-6, "across {} vs {across} N/m", k[(1, 1)]);
+        assert!(rel(k[(0, 0)], across) < 1e-6, "across {} vs {across} N/m", k[(0, 0)]);
+    }
+    let dangling = Vec3::new(0.0, 0.0, -(l0 + 0.5 * w * l0 * l0 / ea));
+    let r = respond(&kind, mpl, &dangling, &gravity, &Vec3::zeros()).unwrap();
+    assert!(r.end_b.norm() < 1e-6 * w * l0, "a free end carries nothing: {}", r.end_b);
+    let k = r.elastic + r.geometric;
+    assert!(k[(0, 0)].abs() < 1e-9 && k[(1, 1)].abs() < 1e-9, "nothing across: {k}");
 }

@@ -337,7 +337,8 @@ fn check_random_rigs(range: std::ops::Range<u64>, edit: impl Fn(u64, Project) ->
                     let (low, scale) = lowest_eigenvalue(&m, 0, &displacements(&eq));
                     assert!(
                         low <= 1e-11 * scale,
-                        "rig {i}: called {other:?}, but its lowest eigenvalue is {low:e} of {scale:e}"
+                        "rig {i}: called {other:?}, but its lowest eigenvalue is {low:e} of {scale:e}\n{}",
+                        p.to_ron()
                     );
                 }
             },

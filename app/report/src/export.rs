@@ -143,6 +143,27 @@ fn v3(v: &Vec3) -> Value {
     json!([v.x, v.y, v.z])
 }
 
+/// One member's result as JSON (SI): force, length, unstressed length, strain and slackness,
+/// and for a cable that sags under its own weight a `sag` object — `tension_a`, `tension_b`
+/// (N, at each end; `force` is the larger), `horizontal` (N), `sag` (largest distance from the
+/// chord, m), `mid_span_sag` (below the chord half-way across, m), `angle_a_deg`, `angle_b_deg`
+/// (above the horizontal where the cable leaves end a and meets end b, rising towards b
+/// positive), `stretched_length` (m), `weight` (N) and `curve` (points end a to end b, m).
+pub fn member_json(m: &rigwright_core::solve::MemberResult) -> Value {
+    let mut v = json!({"id": m.id, "kind": m.kind.name(), "force": m.force, "length": m.length,
+                       "unstressed_length": m.unstressed_length, "strain": m.strain, "slack": m.slack});
+    if let Some(s) = &m.sag {
+        v["sag"] = json!({
+            "tension_a": s.tension_a, "tension_b": s.tension_b, "horizontal": s.horizontal,
+            "sag": s.sag, "mid_span_sag": s.mid_span_sag,
+            "angle_a_deg": s.angle_a.to_degrees(), "angle_b_deg": s.angle_b.to_degrees(),
+            "stretched_length": s.stretched_length, "weight": s.weight,
+            "curve": s.curve.iter().map(v3).collect::<Vec<_>>(),
+        });
+    }
+    v
+}
+
 /// The full result: every case (equilibrium or why none), every member check with its lines,
 /// the design basis, modes and stiffness of the sheet's case, and traceability.
 pub fn result_json(sheet: &Sheet) -> String {
@@ -161,9 +182,7 @@ pub fn result_json(sheet: &Sheet) -> String {
                 "nodes": eq.nodes.iter().map(|n| json!({
                     "id": n.id, "position": v3(&n.position), "displacement": v3(&n.displacement),
                     "reaction": n.reaction.as_ref().map(v3)})).collect::<Vec<_>>(),
-                "members": eq.members.iter().map(|m| json!({
-                    "id": m.id, "kind": m.kind.name(), "force": m.force, "length": m.length,
-                    "unstressed_length": m.unstressed_length, "strain": m.strain, "slack": m.slack})).collect::<Vec<_>>(),
+                "members": eq.members.iter().map(member_json).collect::<Vec<_>>(),
             }),
             None => json!({"name": c.name, "converged": false, "stable": false, "diagnostic": c.error}),
         })

@@ -32,14 +32,7 @@ pub fn solve_json(eq: &Equilibrium, k: Option<&NodeStiffness>) -> String {
         .iter()
         .map(|n| json!({"id": n.id, "position": v3(&n.position), "displacement": v3(&n.displacement), "reaction": n.reaction.as_ref().map(v3)}))
         .collect();
-    let members: Vec<Value> = eq
-        .members
-        .iter()
-        .map(|m| {
-            json!({"id": m.id, "kind": m.kind.name(), "force": m.force, "length": m.length,
-                   "unstressed_length": m.unstressed_length, "strain": m.strain, "slack": m.slack})
-        })
-        .collect();
+    let members: Vec<Value> = eq.members.iter().map(rigwright_report::export::member_json).collect();
     let mut doc = json!({
         "format": "rigwright.solve/1",
         "units": {"length": "m", "force": "N", "stiffness": "N/m"},

@@ -219,7 +219,11 @@ impl Catenary {
         let (mut lo, mut hi) = (0.0, self.l0);
         for _ in 0..100 {
             let mid = 0.5 * (lo + hi);
-            if self.point_at(hang, mid).0 < 0.5 * lx { lo = mid } else { hi = mid }
+            if self.point_at(hang, mid).0 < 0.5 * lx {
+                lo = mid
+            } else {
+                hi = mid
+            }
         }
         let (_, z) = self.point_at(hang, 0.5 * (lo + hi));
         0.5 * lz - z
@@ -359,7 +363,11 @@ mod tests {
     /// mid-span sag 6.20867 m.
     #[test]
     fn level_span_matches_the_reference_values() {
-        let c = Catenary { ea: 1e7, l0: 101.0, q: 10.0 };
+        let c = Catenary {
+            ea: 1e7,
+            l0: 101.0,
+            q: 10.0,
+        };
         let hang = c.hang(100.0, 0.0).unwrap();
         assert!((hang.h - 2023.1664).abs() < 1e-3, "H = {}", hang.h);
         assert!((hang.v + 505.0).abs() < 1e-9, "V = {}", hang.v);
@@ -384,7 +392,12 @@ mod tests {
             let col_h = (c.span_of(h + dh, v).0 - c.span_of(h - dh, v).0) / (2.0 * dh);
             let col_v = (c.span_of(h, v + dv).0 - c.span_of(h, v - dv).0) / (2.0 * dv);
             let scale = f.abs().max();
-            for (fd, an) in [(col_h.x, f[(0, 0)]), (col_h.y, f[(1, 0)]), (col_v.x, f[(0, 1)]), (col_v.y, f[(1, 1)])] {
+            for (fd, an) in [
+                (col_h.x, f[(0, 0)]),
+                (col_h.y, f[(1, 0)]),
+                (col_v.x, f[(0, 1)]),
+                (col_v.y, f[(1, 1)]),
+            ] {
                 assert!((fd - an).abs() < 1e-6 * scale, "({h}, {v}): fd {fd} vs {an}");
             }
         }
@@ -393,11 +406,28 @@ mod tests {
     /// Solving and re-evaluating gives the chord back, taut to deep sag, rising and falling.
     #[test]
     fn hang_reproduces_the_chord_from_taut_to_deep_sag() {
-        let c = Catenary { ea: 1e6, l0: 10.0, q: 20.0 };
-        for &(lx, lz) in &[(9.999, 0.0), (10.05, 0.0), (6.0, 3.0), (1.0, -2.0), (0.5, 9.9), (3.0, -8.0), (0.0, 5.0), (0.0, 10.001), (8.0, 5.9)] {
+        let c = Catenary {
+            ea: 1e6,
+            l0: 10.0,
+            q: 20.0,
+        };
+        for &(lx, lz) in &[
+            (9.999, 0.0),
+            (10.05, 0.0),
+            (6.0, 3.0),
+            (1.0, -2.0),
+            (0.5, 9.9),
+            (3.0, -8.0),
+            (0.0, 5.0),
+            (0.0, 10.001),
+            (8.0, 5.9),
+        ] {
             let hang = c.hang(lx, lz).unwrap_or_else(|_| panic!("({lx}, {lz})"));
             let (at, _) = c.span_of(hang.h, hang.v);
-            assert!((at.x - lx.max(1e-9)).abs() < 1e-9 && (at.y - lz).abs() < 1e-9, "({lx}, {lz}): {at:?}");
+            assert!(
+                (at.x - lx.max(1e-9)).abs() < 1e-9 && (at.y - lz).abs() < 1e-9,
+                "({lx}, {lz}): {at:?}"
+            );
             assert!(hang.h > 0.0);
         }
     }
@@ -406,7 +436,11 @@ mod tests {
     /// a held), the envelope property of the cable's equilibrium shape (common practice).
     #[test]
     fn energy_derivatives_are_the_end_forces() {
-        let c = Catenary { ea: 1e6, l0: 10.0, q: 20.0 };
+        let c = Catenary {
+            ea: 1e6,
+            l0: 10.0,
+            q: 20.0,
+        };
         for &(lx, lz) in &[(9.0, 1.0), (6.0, -3.0), (9.99, 0.5)] {
             let e = |x: f64, z: f64| c.energy(&c.hang(x, z).unwrap());
             let hang = c.hang(lx, lz).unwrap();
@@ -462,7 +496,11 @@ mod tests {
     /// level chord is at mid-span; the stretched length exceeds L0 by the mean strain.
     #[test]
     fn sag_and_stretched_length_of_the_level_span() {
-        let c = Catenary { ea: 1e7, l0: 101.0, q: 10.0 };
+        let c = Catenary {
+            ea: 1e7,
+            l0: 101.0,
+            q: 10.0,
+        };
         let hang = c.hang(100.0, 0.0).unwrap();
         let (sag, s) = c.sag(&hang);
         assert!((sag - 6.20867).abs() < 1e-5 && (s - 50.5).abs() < 1e-6, "{sag} at {s}");
@@ -471,7 +509,13 @@ mod tests {
         let n = 2000;
         let mut t_int = 0.0;
         for k in 0..=n {
-            let w = if k == 0 || k == n { 1.0 } else if k % 2 == 1 { 4.0 } else { 2.0 };
+            let w = if k == 0 || k == n {
+                1.0
+            } else if k % 2 == 1 {
+                4.0
+            } else {
+                2.0
+            };
             t_int += w * c.tension_at(&hang, 101.0 * k as f64 / n as f64);
         }
         t_int *= 101.0 / n as f64 / 3.0;
@@ -487,7 +531,11 @@ mod tests {
                 let hg = c.hang(lx, lz).unwrap();
                 Vector2::new(hg.h, hg.v)
             };
-            let c = Catenary { ea: 1e6, l0: 10.0, q: 20.0 };
+            let c = Catenary {
+                ea: 1e6,
+                l0: 10.0,
+                q: 20.0,
+            };
             let an = c.weight_rate(&c.hang(lx, lz).unwrap());
             let dq = 1e-5;
             let fd = (rate(20.0 + dq) - rate(20.0 - dq)) / (2.0 * dq);

@@ -127,10 +127,21 @@ fn sagging(kind: &MemberKind, mass_per_length: f64, chord: &Vec3, gravity: &Vec3
     let kin = hang.flexibility.try_inverse()?;
     let across = up.cross(&horizontal);
     let span = hang.span.0;
-    let total = horizontal * horizontal.transpose() * kin[(0, 0)]
-        + (horizontal * up.transpose() + up * horizontal.transpose()) * kin[(0, 1)]
-        + up * up.transpose() * kin[(1, 1)]
-        + across * across.transpose() * (h / span);
+    let total = if lx <= 1e-9 * chord.norm() {
+        // A vertical chord (within round-off): the same across every horizontal direction,
+        // `1/∫(1/T + 1/EA) ds`, the limit of `H/l_x`; zero where the tension vanishes along the
+        // cable (a free lower end, or a loop hanging below both ends), where the force across
+        // grows only as `δ/ln(1/δ)` and the tangent's exact value is nil (tension below a
+        // millionth of the weight counts as vanished: an equilibrium's residual leaves that).
+        let tension_free = v <= 1e-6 * cable.q * l0 && vb >= -1e-6 * cable.q * l0;
+        let lateral = if tension_free { 0.0 } else { h / span };
+        up * up.transpose() * kin[(1, 1)] + (Matrix3::identity() - up * up.transpose()) * lateral
+    } else {
+        horizontal * horizontal.transpose() * kin[(0, 0)]
+            + (horizontal * up.transpose() + up * horizontal.transpose()) * kin[(0, 1)]
+            + up * up.transpose() * kin[(1, 1)]
+            + across * across.transpose() * (h / span)
+    };
     let l = chord.norm();
     let geometric = if l > 0.0 {
         let e = chord / l;
@@ -171,7 +182,10 @@ pub fn load_rate(kind: &MemberKind, mass_per_length: f64, chord: &Vec3, gravity_
     let up = -gravity_case / g_case;
     let q_case = mass_per_length * g_case;
     let gravity = gravity_case * lambda;
-    let Some(Response { sag: Some(sag), .. }) = (sags(kind, mass_per_length, &gravity)).then(|| respond(kind, mass_per_length, chord, &gravity, &Vec3::zeros())).flatten() else {
+    let Some(Response { sag: Some(sag), .. }) = (sags(kind, mass_per_length, &gravity))
+        .then(|| respond(kind, mass_per_length, chord, &gravity, &Vec3::zeros()))
+        .flatten()
+    else {
         // Straight (no load yet): its weight reaches the ends half each.
         let half = up * (0.5 * q_case * l0);
         return (half, half);
@@ -228,7 +242,10 @@ mod tests {
             assert!((k - k.transpose()).abs().max() < 1e-9 * scale, "{chord:?} not symmetric");
             // The ends carry the whole weight: end_a + end_b = q L0 up.
             let w = r.end_a + r.end_b;
-            assert!((w - Vec3::new(0.0, 1.5 * 9.81 * 10.0, 0.0)).norm() < 1e-9 * r.force.max(1.0), "{w:?}");
+            assert!(
+                (w - Vec3::new(0.0, 1.5 * 9.81 * 10.0, 0.0)).norm() < 1e-9 * r.force.max(1.0),
+                "{w:?}"
+            );
         }
     }
 
@@ -244,7 +261,10 @@ mod tests {
             let (p, m) = (f(0.7 + d), f(0.7 - d));
             let fa = (p.end_a - m.end_a) / (2.0 * d);
             let fb = (p.end_b - m.end_b) / (2.0 * d);
-            assert!((fa - ra).norm() < 1e-5 * fa.norm().max(1.0) && (fb - rb).norm() < 1e-5 * fb.norm().max(1.0), "{chord:?}: {fa:?} {fb:?} vs {ra:?} {rb:?}");
+            assert!(
+                (fa - ra).norm() < 1e-5 * fa.norm().max(1.0) && (fb - rb).norm() < 1e-5 * fb.norm().max(1.0),
+                "{chord:?}: {fa:?} {fb:?} vs {ra:?} {rb:?}"
+            );
         }
     }
 
@@ -259,7 +279,12 @@ mod tests {
         let g = Vec3::new(0.0, -9.81, 0.0);
         let sag = respond(&kind, m, &chord, &g, &Vec3::zeros()).unwrap();
         let w = m * 9.81 * 10.0;
-        assert!((sag.end_b.x - straight.end_b.x).abs() < 1e-9 * straight.force, "{} vs {}", sag.end_b.x, straight.end_b.x);
+        assert!(
+            (sag.end_b.x - straight.end_b.x).abs() < 1e-9 * straight.force,
+            "{} vs {}",
+            sag.end_b.x,
+            straight.end_b.x
+        );
         assert!((sag.end_b.y - 0.5 * w).abs() < 1e-9 * straight.force);
     }
 }

@@ -185,7 +185,8 @@ impl Param {
                 match &mut m.kind {
                     // A cable's pretension given as its horizontal component stays so.
                     MemberDocKind::Cable {
-                        rest: rest @ Rest::Horizontal(_), ..
+                        rest: rest @ Rest::Horizontal(_),
+                        ..
                     } => *rest = Rest::Horizontal(value),
                     MemberDocKind::Cable { rest, .. } | MemberDocKind::Spring { rest, .. } | MemberDocKind::Strut { rest, .. } => {
                         *rest = Rest::Tension(value)

@@ -340,7 +340,9 @@ impl Statics<'_> {
         }
         fractions.iter().all(|&s| {
             let at: Vec<Vec3> = a.iter().zip(b).map(|(x, y)| x + (y - x) * s).collect();
-            let values = self.system.assemble(self.model, &at, &load.gravity_at(la + (lb - la) * s), Part::Total);
+            let values = self
+                .system
+                .assemble(self.model, &at, &load.gravity_at(la + (lb - la) * s), Part::Total);
             verdict(&self.system, &values).0 == Definiteness::Positive
         })
     }

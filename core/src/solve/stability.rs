@@ -66,7 +66,12 @@ pub fn verdict(sys: &System, values: &[f64]) -> (Definiteness, Option<Factor>) {
 /// The verdict on the equilibrium at displacements `disp` of `model` under gravitational
 /// acceleration `gravity` (for sagging cables): [`verdict`] on the
 /// tangent with cables at zero tension counted slack ([`System::assemble_for_verdict`]).
-pub fn verdict_at(sys: &System, model: &crate::model::Model, disp: &[crate::model::Vec3], gravity: &crate::model::Vec3) -> (Definiteness, Option<Factor>) {
+pub fn verdict_at(
+    sys: &System,
+    model: &crate::model::Model,
+    disp: &[crate::model::Vec3],
+    gravity: &crate::model::Vec3,
+) -> (Definiteness, Option<Factor>) {
     let floor = System::slack_floor(model, disp, gravity);
     verdict(sys, &sys.assemble_for_verdict(model, disp, gravity, floor))
 }

@@ -614,7 +614,10 @@ impl<'m> Statics<'m> {
                 let r = member_response(model, m, &u, &gravity).expect("converged state has positive lengths");
                 let l = super::system::member_vector(model, m, &u).norm();
                 let l0 = m.kind.rest_length();
-                let sag = r.sag.as_ref().map(|s| sag_result(s, model.nodes[m.ends[0]].position + u[m.ends[0]]));
+                let sag = r
+                    .sag
+                    .as_ref()
+                    .map(|s| sag_result(s, model.nodes[m.ends[0]].position + u[m.ends[0]]));
                 let stretched = sag.as_ref().map_or(l, |s| s.stretched_length);
                 MemberResult {
                     id: m.id.clone(),
@@ -663,7 +666,9 @@ impl<'m> Statics<'m> {
 
     /// The gravitational acceleration an equilibrium was found under (its case's, at full load).
     pub fn gravity_of(&self, eq: &Equilibrium) -> Vec3 {
-        self.model.case_index(&eq.case).map_or(self.model.gravity, |c| self.model.case_gravity(c))
+        self.model
+            .case_index(&eq.case)
+            .map_or(self.model.gravity, |c| self.model.case_gravity(c))
     }
 
     /// Names the node and direction of the lowest tangent-stiffness mode.

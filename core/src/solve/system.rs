@@ -85,7 +85,13 @@ pub fn member_lengths(model: &Model, disp: &[Vec3]) -> Vec<f64> {
 /// `gravity` (m/s², the case's times the load factor), or `None` when it has collapsed.
 #[inline]
 pub fn member_response(model: &Model, m: &Member, disp: &[Vec3], gravity: &Vec3) -> Option<Response> {
-    respond(&m.kind, m.mass_per_length, &member_vector(model, m, disp), gravity, &disp[m.ends[0]])
+    respond(
+        &m.kind,
+        m.mass_per_length,
+        &member_vector(model, m, disp),
+        gravity,
+        &disp[m.ends[0]],
+    )
 }
 
 /// The loads of one load case at full load: the nodal forces (the weights of the node masses
@@ -278,7 +284,9 @@ impl System {
             if scatter.is_empty() {
                 continue;
             }
-            let Some(r) = member_response(model, m, disp, gravity) else { continue };
+            let Some(r) = member_response(model, m, disp, gravity) else {
+                continue;
+            };
             if let Some(floor) = floor
                 && r.sag.is_none()
                 && matches!(m.kind, crate::element::MemberKind::Cable { .. })
