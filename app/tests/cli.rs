@@ -721,3 +721,75 @@ fn the_app_writes_the_sheet_and_csv_of_its_document_and_reports_a_failed_write()
     let err = write(&app, ExportKind::Json, &dir.join("no-such-folder").join("r.json")).unwrap_err();
     assert!(err.contains("could not write"), "{err}");
 }
+
+/// A guy that sags under its own weight carries a `sag` object in `solve --json` and a second
+/// table in the text, whose numbers keep the statics of the free cable (common practice): the
+/// horizontal component is the same at both ends, the vertical components differ by the
+/// cable's weight (0.576 kg/m × g × its unstressed length, from the file), the anchor's
+/// reaction is the tension at that end, and the curve runs from end to end.
+#[test]
+fn solve_reports_the_sag_of_a_weighted_guy_and_its_statics_hold() {
+    let file = sample("guyed-pole.rig.ron");
+    let (code, out, err) = rigwright(&["solve", file.to_str().unwrap(), "--json"]);
+    assert_eq!(code, 0, "{err}");
+    let doc: serde_json::Value = serde_json::from_str(&out).unwrap();
+    let guy = doc["members"].as_array().unwrap().iter().find(|m| m["id"] == "guy-a").unwrap();
+    let s = &guy["sag"];
+    let f = |k: &str| s[k].as_f64().unwrap_or_else(|| panic!("{k} missing"));
+    let weight = 0.576 * 9.81 * guy["unstressed_length"].as_f64().unwrap();
+    assert!((f("weight") - weight).abs() <= 1e-12 * weight);
+    let (ta, tb) = (f("tension_a"), f("tension_b"));
+    let (aa, ab) = (f("angle_a_deg").to_radians(), f("angle_b_deg").to_radians());
+    let h = f("horizontal");
+    assert!((ta * aa.cos() - h).abs() <= 1e-9 * h && (tb * ab.cos() - h).abs() <= 1e-9 * h);
+    assert!(
+        (tb * ab.sin() - ta * aa.sin() - weight).abs() <= 1e-9 * tb,
+        "vertical balance of the cable"
+    );
+    assert_eq!(guy["force"].as_f64().unwrap(), ta.max(tb));
+    assert!(f("sag") > 0.0 && f("mid_span_sag") >= f("sag"));
+    let nodes = doc["nodes"].as_array().unwrap();
+    let at = |id: &str| nodes.iter().find(|n| n["id"] == id).unwrap();
+    let reaction: Vec<f64> = at("anchor-a")["reaction"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|v| v.as_f64().unwrap())
+        .collect();
+    let r = reaction.iter().map(|v| v * v).sum::<f64>().sqrt();
+    assert!((r - ta).abs() <= 1e-9 * ta, "anchor reaction {r} vs tension {ta} N");
+    let curve = s["curve"].as_array().unwrap();
+    for (point, id) in [(&curve[0], "anchor-a"), (curve.last().unwrap(), "top")] {
+        for k in 0..3 {
+            let (p, q) = (point[k].as_f64().unwrap(), at(id)["position"][k].as_f64().unwrap());
+            assert!((p - q).abs() <= 1e-9, "curve end {p} vs node {id} {q}");
+        }
+    }
+    let (_, text, _) = rigwright(&["solve", file.to_str().unwrap()]);
+    assert!(
+        text.contains("cables that sag under their own weight") && text.contains("mid-span [m]"),
+        "{text}"
+    );
+}
+
+/// A long level cable given no mass per length gets a warning that its real weight would
+/// soften it (here a steel rope of EA 1e7 N at 10 kN over 100 m: Ernst's factor 1/(1 + (w l)²
+/// EA/(12 T³)) is about 0.67), and none once its mass per length is given.
+#[test]
+fn a_long_weightless_cable_is_asked_for_its_mass_per_length() {
+    let rig = |mass: f64| {
+        format!(
+            "(version: 2, planar: true, gravity: (0.0, -9.81, 0.0), nodes: [(id: \"a\", at: (0.0, 0.0, 0.0), fixed: (true, true, true)), (id: \"b\", at: (100.0, 0.0, 0.0), fixed: (true, true, true))], members: [(id: \"span\", ends: (\"a\", \"b\"), kind: Cable(ea: 1e7, rest: Horizontal(10000.0)), mass_per_length: {mass:?})])"
+        )
+    };
+    for (mass, warned) in [(0.0, true), (0.8, false)] {
+        let path = std::env::temp_dir().join(format!("rigwright-cli-{}-span.rig.ron", std::process::id()));
+        std::fs::write(&path, rig(mass)).unwrap();
+        let (code, out, err) = rigwright(&["export", path.to_str().unwrap(), "--json", "-"]);
+        assert_eq!(code, 0, "{err}");
+        let doc: serde_json::Value = serde_json::from_str(&out).unwrap();
+        let text = doc["warnings"].to_string();
+        let _ = std::fs::remove_file(&path);
+        assert_eq!(text.contains("Cable `span` has no mass per length"), warned, "{text}");
+    }
+}

@@ -118,6 +118,7 @@ pub(crate) fn warnings(model: &Model, report: &CheckReport, drawn: usize, units:
             ));
         }
     }
+    out.extend(sag_warnings(model, report, units));
     let with = |status: Status| -> String {
         let ids: Vec<String> = report.members.iter().filter(|m| m.status == status).map(|m| m.id.clone()).collect();
         id_list(&ids, report.members.len())
@@ -151,6 +152,91 @@ pub(crate) fn warnings(model: &Model, report: &CheckReport, drawn: usize, units:
     }
     for (note, ids) in notes {
         out.push(format!("{}: {note}.", members_phrase(&ids, report.members.len())));
+    }
+    out
+}
+
+/// A cable's end is this far (degrees) off its chord line before the warnings say the
+/// fittings should follow the cable's own end angles (a judgement: a few degrees of
+/// misalignment is what shackles and sockets take without comment).
+const END_ANGLE_OFF_CHORD: f64 = 5.0;
+
+/// Sag at least this fraction of the chord is pointed out.
+const LARGE_SAG: f64 = 0.05;
+
+/// Softening of a weightless cable's chord stiffness by its likely real weight beyond which
+/// the warnings ask for its mass per length.
+const WEIGHT_SOFTENS: f64 = 0.03;
+
+/// Cables whose sag matters for their fittings, and weightless cables whose real weight would
+/// change their stiffness: per cable, its worst load case.
+fn sag_warnings(model: &Model, report: &CheckReport, units: Units) -> Vec<String> {
+    let mut out = Vec::new();
+    for (mi, m) in model.members.iter().enumerate() {
+        let rigwright_core::MemberKind::Cable { ea, .. } = m.kind else {
+            continue;
+        };
+        // Worst case by end angle off the chord (sagging) or by softening (weightless).
+        let mut worst: Option<(f64, String)> = None;
+        for (ci, c) in report.cases.iter().enumerate() {
+            let Some(eq) = &c.equilibrium else { continue };
+            let r = &eq.members[mi];
+            let g = model.gravity.norm() * model.cases[ci].gravity.abs();
+            if let Some(sag) = &r.sag {
+                let chord = r.length.max(1e-300);
+                let [a, b] = m.ends;
+                let d = eq.nodes[b].position - eq.nodes[a].position;
+                let up = -model.gravity / model.gravity.norm().max(1e-300);
+                let rise = d.dot(&up);
+                let chord_angle = rise.atan2((d - up * rise).norm());
+                let off = (sag.angle_a - chord_angle)
+                    .abs()
+                    .max((sag.angle_b - chord_angle).abs())
+                    .to_degrees();
+                let ratio = sag.sag / chord;
+                if (off > END_ANGLE_OFF_CHORD || ratio > LARGE_SAG) && worst.as_ref().is_none_or(|w| off > w.0) {
+                    worst = Some((
+                        off,
+                        format!(
+                            "Cable `{}` sags {} over its {} chord (1 : {:.0}) in load case `{}`; its ends, at {:.1}° and {:.1}° above the horizontal, leave the chord line by up to {off:.1}°: align its fittings with the cable, not the chord.",
+                            m.id,
+                            units.show(Quantity::Length, sag.sag),
+                            units.show(Quantity::Length, chord),
+                            chord / sag.sag.max(1e-300),
+                            c.name,
+                            sag.angle_a.to_degrees(),
+                            sag.angle_b.to_degrees()
+                        ),
+                    ));
+                }
+            } else if m.mass_per_length == 0.0 && g > 0.0 && !r.slack && r.force > 0.0 {
+                // A steel rope of this EA (modulus about 100 GPa on its metallic area, density
+                // 7850 kg/m³; common practice) and its weight's softening by Ernst's
+                // equivalent modulus, E_eq/E = 1/(1 + (w l)² EA/(12 T³)), l the horizontal span.
+                let w = 7850.0 * ea / 100e9 * g;
+                let [a, b] = m.ends;
+                let d = eq.nodes[b].position - eq.nodes[a].position;
+                let up = -model.gravity / model.gravity.norm();
+                let across = (d - up * d.dot(&up)).norm(); // the horizontal span
+                let soft = 1.0 - 1.0 / (1.0 + (w * across).powi(2) * ea / (12.0 * r.force.powi(3)));
+                if soft > WEIGHT_SOFTENS && worst.as_ref().is_none_or(|x| soft > x.0) {
+                    worst = Some((
+                        soft,
+                        format!(
+                            "Cable `{}` has no mass per length: a steel rope of its EA weighs about {:.2} N/m, which at its {} tension in load case `{}` would soften its stiffness along the chord by up to {:.0} % (Ernst's equivalent modulus); give it its mass per length (catalogue parts carry it) so that it sags as it will.",
+                            m.id,
+                            w,
+                            units.show(Quantity::Force, r.force),
+                            c.name,
+                            soft * 100.0
+                        ),
+                    ));
+                }
+            }
+        }
+        if let Some((_, text)) = worst {
+            out.push(text);
+        }
     }
     out
 }

@@ -116,6 +116,30 @@ pub fn solve_table(model: &Model, eq: &Equilibrium, k: Option<&NodeStiffness>) -
             m.strain
         );
     }
+    if eq.members.iter().any(|m| m.sag.is_some()) {
+        let _ = writeln!(
+            s,
+            "\ncables that sag under their own weight (force above = the larger end tension; angles above the horizontal, rising towards end b)\n{:<14} {:>12} {:>12} {:>12} {:>10} {:>13} {:>10} {:>10} {:>14}",
+            "member", "T at a [N]", "T at b [N]", "H [N]", "sag [m]", "mid-span [m]", "at a [°]", "at b [°]", "stretched [m]"
+        );
+        for m in &eq.members {
+            if let Some(g) = &m.sag {
+                let _ = writeln!(
+                    s,
+                    "{:<14} {:>12.2} {:>12.2} {:>12.2} {:>10.4} {:>13.4} {:>10.2} {:>10.2} {:>14.5}",
+                    m.id,
+                    g.tension_a,
+                    g.tension_b,
+                    g.horizontal,
+                    g.sag,
+                    g.mid_span_sag,
+                    g.angle_a.to_degrees(),
+                    g.angle_b.to_degrees(),
+                    g.stretched_length
+                );
+            }
+        }
+    }
     let _ = writeln!(
         s,
         "\n{:<14} {:>30} {:>36}",

@@ -122,6 +122,22 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         for (m, r) in model.members.iter().zip(&eq.members) {
             let (a, b) = (fp[m.ends[0]], fp[m.ends[1]]);
             match m.kind {
+                MemberKind::Cable { .. } if r.sag.is_some() => {
+                    // The sagged curve at true scale, carried with its ends' (magnified) moves.
+                    let sag = r.sag.as_ref().expect("checked");
+                    let (ua, ub) = (eq.nodes[m.ends[0]].displacement, eq.nodes[m.ends[1]].displacement);
+                    let n = sag.curve.len().max(2) - 1;
+                    let pts: Vec<(f32, f32)> = sag
+                        .curve
+                        .iter()
+                        .enumerate()
+                        .map(|(k, c)| {
+                            let f = k as f64 / n as f64;
+                            to_page(uv(&(c + (ua * (1.0 - f) + ub * f) * (mag - 1.0))))
+                        })
+                        .collect();
+                    page.path(pts, false, Some(Pen::solid(0.9, Ink::Black)), None);
+                }
                 MemberKind::Cable { .. } if r.slack => page.line(a, b, Pen::dashed(0.9, Ink::Black, 2.0, 1.6)),
                 MemberKind::Cable { .. } => page.line(a, b, Pen::solid(0.9, Ink::Black)),
                 MemberKind::Strut { .. } => page.line(a, b, Pen::solid(2.2, Ink::Dark)),

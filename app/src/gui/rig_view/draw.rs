@@ -68,11 +68,25 @@ pub(super) fn draw_answer(app: &RigApp, a: &Answer<'_>, painter: &egui::Painter,
                 painter.extend(Shape::dashed_line(&[sa, sb], Stroke::new(1.6, pal::SLACK), 7.0, 5.0));
             }
             MemberClass::Spring => hollow_or_solid(painter, zigzag(sa, sb), colour, compression, 2.0),
+            // A cable that sags under its own weight: its curve, at true scale.
+            MemberClass::Cable if r.sag.is_some() => {
+                let curve = &r.sag.as_ref().expect("checked").curve;
+                let pts: Vec<Pos2> = curve.iter().map(|c| view.to_screen(*c)).collect();
+                hollow_or_solid(painter, pts, colour, false, 3.2);
+            }
             _ => hollow_or_solid(painter, vec![sa, sb], colour, compression, 3.2),
         }
         if labels && !r.slack && sa.distance(sb) > 56.0 {
-            let mid = sa + (sb - sa) * 0.5;
-            let n = (sb - sa).normalized().rot90();
+            let (mut mid, mut n) = (sa + (sb - sa) * 0.5, (sb - sa).normalized().rot90());
+            if let Some(sag) = &r.sag
+                && sag.curve.len() >= 3
+            {
+                // Beside the curve's middle, not the chord's.
+                let k = sag.curve.len() / 2;
+                let (p, q) = (view.to_screen(sag.curve[k - 1]), view.to_screen(sag.curve[k + 1]));
+                mid = view.to_screen(sag.curve[k]);
+                n = (q - p).normalized().rot90();
+            }
             texts.push((mid + n * 11.0, units.show(Quantity::Force, r.force), pal::INK));
         } else if labels && r.slack {
             texts.push((sa + (sb - sa) * 0.3, "slack".into(), pal::SLACK));
