@@ -78,6 +78,10 @@ pub enum Command {
         /// Number of modes (lowest first).
         #[arg(long, default_value_t = 6)]
         count: usize,
+        /// Links each sagging cable is cut into so that its own mass vibrates (default: from
+        /// the frequencies asked for, 8 to 64; 1 lumps each cable's mass at its ends).
+        #[arg(long)]
+        cable_links: Option<usize>,
         /// Print one JSON document (SI units).
         #[arg(long)]
         json: bool,

@@ -3,7 +3,9 @@
 use std::fmt::Write as _;
 use std::path::Path;
 
-use rigwright_core::dynamics::{MotionSettings, PluckSpec, Record, backbone, modes, pulled_positions, rayleigh_coefficients, record};
+use rigwright_core::dynamics::{
+    CableLinks, MotionSettings, PluckSpec, Record, backbone, modes, modes_with, pulled_positions, rayleigh_coefficients, record,
+};
 use rigwright_core::{Equilibrium, Model, Statics, Vec3};
 use serde_json::{Value, json};
 
@@ -25,10 +27,10 @@ fn stable_equilibrium(statics: &Statics, case: usize) -> Result<Equilibrium, Fai
 }
 
 /// `rigwright modes`.
-pub fn modes_command(model: &Model, case: usize, count: usize, json: bool) -> Result<String, Failure> {
+pub fn modes_command(model: &Model, case: usize, count: usize, links: CableLinks, json: bool) -> Result<String, Failure> {
     let statics = Statics::new(model);
     let eq = stable_equilibrium(&statics, case)?;
-    let ms = modes(&statics, &eq, count.max(1)).map_err(|e| Failure {
+    let ms = modes_with(&statics, &eq, count.max(1), links, &rigwright_core::Watch::new()).map_err(|e| Failure {
         code: EXIT_NO_EQUILIBRIUM,
         message: e.to_string(),
     })?;
@@ -44,15 +46,31 @@ pub fn modes_command(model: &Model, case: usize, count: usize, json: bool) -> Re
                     .map(|(n, s)| json!({"id": n.id, "vector": [s.x, s.y, s.z]}))
                     .collect();
                 json!({"frequency_hz": m.frequency_hz, "period_s": m.period_s, "omega_rad_s": m.omega,
-                       "effective_mass_kg": m.effective_mass, "shape": shape})
+                       "effective_mass_kg": m.effective_mass, "cable_share": m.cable_share, "shape": shape})
             })
             .collect();
         let doc = json!({"format": "rigwright.modes/1", "case": eq.case, "units": {"frequency": "Hz", "period": "s", "mass": "kg",
-                         "shape": "mass-normalised, m·kg^-1/2"}, "mobile_mass_kg": ms.mobile_mass, "modes": list});
+                         "shape": "mass-normalised, m·kg^-1/2"}, "mobile_mass_kg": ms.mobile_mass,
+                         "cables": ms.cables, "note": ms.note, "modes": list});
         return Ok(serde_json::to_string_pretty(&doc).expect("json"));
     }
     let mut s = String::new();
     let _ = writeln!(s, "natural modes about the equilibrium of load case `{}`", eq.case);
+    if !ms.cables.is_empty() {
+        let list: Vec<String> = ms.cables.iter().map(|c| format!("`{}` {}", c.member, c.links)).collect();
+        let _ = writeln!(
+            s,
+            "sagging cables cut into links so that their own mass vibrates: {}",
+            if list.len() > 8 {
+                format!("{} and {} more", list[..6].join(", "), list.len() - 6)
+            } else {
+                list.join(", ")
+            }
+        );
+    }
+    if let Some(note) = &ms.note {
+        let _ = writeln!(s, "note: {note}");
+    }
     let _ = writeln!(
         s,
         "{:>4} {:>14} {:>12} {:>36}  largest motion",
@@ -68,9 +86,19 @@ pub fn modes_command(model: &Model, case: usize, count: usize, json: bool) -> Re
             .unwrap_or(("—", &m.shape[0]));
         let d = if v.norm() > 0.0 { v.normalize() } else { *v };
         let em = m.effective_mass;
+        let (lead, cables) = if ms.cables.is_empty() {
+            ("", String::new())
+        } else if m.cable_share >= 0.5 {
+            (
+                "the cables' own; of the nodes, ",
+                format!(" ({:.1} % of its energy in the cables)", 100.0 * m.cable_share),
+            )
+        } else {
+            ("", format!(" ({:.1} % of its energy in the cables)", 100.0 * m.cable_share))
+        };
         let _ = writeln!(
             s,
-            "{:>4} {:>14.4} {:>12.5} {:>36}  node `{node}` along ({:.2}, {:.2}, {:.2})",
+            "{:>4} {:>14.4} {:>12.5} {:>36}  {lead}node `{node}` along ({:.2}, {:.2}, {:.2}){cables}",
             i + 1,
             m.frequency_hz,
             m.period_s,

@@ -204,12 +204,28 @@ pub fn run(command: Command) -> Result<(), Failure> {
                 json,
             },
         ),
-        Command::Modes { file, case, count, json } => {
+        Command::Modes {
+            file,
+            case,
+            count,
+            cable_links,
+            json,
+        } => {
             if count == 0 {
                 return Err(Failure::input("--count 0: ask for at least one mode"));
             }
+            let links = match cable_links {
+                None => rigwright_core::dynamics::CableLinks::Auto,
+                Some(n @ 1..=rigwright_core::dynamics::subdivide::MAX_LINKS) => rigwright_core::dynamics::CableLinks::Each(n),
+                Some(n) => {
+                    return Err(Failure::input(format!(
+                        "--cable-links {n}: give 1 to {} links per cable",
+                        rigwright_core::dynamics::subdivide::MAX_LINKS
+                    )));
+                }
+            };
             let (model, case) = load_case(&file, case.as_deref())?;
-            print_output(&dynamics::modes_command(&model, case, count, json)?, json);
+            print_output(&dynamics::modes_command(&model, case, count, links, json)?, json);
             Ok(())
         }
         Command::Pluck {

@@ -9,7 +9,9 @@ mod modes;
 mod motion;
 mod pluck;
 pub mod spectrum;
+pub mod subdivide;
 
-pub use modes::{Mode, ModeError, Modes, modes, modes_watched};
+pub use modes::{Mode, ModeError, Modes, modes, modes_watched, modes_with};
 pub use motion::{Energy, Motion, MotionError, MotionSettings, Scheme, rayleigh_coefficients};
 pub use pluck::{BackbonePoint, PluckError, PluckSpec, Record, backbone, pulled_positions, record};
+pub use subdivide::{CableLinks, Subdivision};

@@ -23,6 +23,8 @@ use crate::solve::system::Part;
 use crate::solve::{Equilibrium, Statics};
 use crate::watch::Watch;
 
+use super::subdivide::{CableLinks, MAX_LINKS, Subdivision, auto_links, subdivide};
+
 /// Largest number of massive DOFs solved with the dense eigensolver.
 const DENSE_LIMIT: usize = 600;
 /// Block size of the Lanczos iteration.
@@ -42,6 +44,9 @@ pub struct Mode {
     /// Effective modal mass along x, y, z (kg): `(φᵀ M r)²` with `r` the unit rigid
     /// translation.
     pub effective_mass: [f64; 3],
+    /// Share of the mode's kinetic energy in the inner joints of sagging cables cut into links
+    /// (0 to 1; 0 when no cable was): near 1, a mode of the cables themselves.
+    pub cable_share: f64,
 }
 
 /// The lowest modes of a rig, ordered by frequency.
@@ -50,6 +55,11 @@ pub struct Modes {
     pub modes: Vec<Mode>,
     /// Total mass free to move along x, y, z (kg), for comparing effective masses.
     pub mobile_mass: [f64; 3],
+    /// The sagging cables cut into links so that their own mass vibrates (empty: none, or
+    /// each cable's mass lumped at its ends).
+    pub cables: Vec<Subdivision>,
+    /// Why the cables' own modes were left out, when they were.
+    pub note: Option<String>,
 }
 
 /// Why no modes could be computed.
@@ -81,7 +91,85 @@ pub fn modes(statics: &Statics, eq: &Equilibrium, count: usize) -> Result<Modes,
 
 /// [`modes`] that stops early with [`ModeError::Stopped`] when `watch` is stopped (checked
 /// before the factorisation and between Lanczos blocks) and counts Lanczos blocks on it.
+/// Sagging cables are subdivided as [`CableLinks::Auto`] says.
 pub fn modes_watched(statics: &Statics, eq: &Equilibrium, count: usize, watch: &Watch) -> Result<Modes, ModeError> {
+    modes_with(statics, eq, count, CableLinks::Auto, watch)
+}
+
+/// The lowest `count` modes with each sagging cable cut into links for its own mass to
+/// vibrate ([`subdivide`](super::subdivide)): the modes of the rig with its cables' own modes
+/// among them. The shapes are given at the original nodes; [`Modes::cables`] lists the links
+/// used, and [`Modes::note`] says when the subdivided rig could not be used (its modes are
+/// then those with each cable's mass lumped at its ends).
+pub fn modes_with(statics: &Statics, eq: &Equilibrium, count: usize, links: CableLinks, watch: &Watch) -> Result<Modes, ModeError> {
+    let model = statics.model();
+    if !eq.stability.is_stable() || !model.members.iter().any(|m| m.sags()) || links == CableLinks::Each(1) {
+        return modes_lumped(statics, eq, count, watch);
+    }
+    let Some(case) = model.case_index(&eq.case) else {
+        return modes_lumped(statics, eq, count, watch);
+    };
+    if model.case_gravity(case).norm() == 0.0 {
+        return modes_lumped(statics, eq, count, watch);
+    }
+    let per_member: Vec<usize> = match links {
+        CableLinks::Each(n) => model
+            .members
+            .iter()
+            .map(|m| if m.sags() { n.clamp(1, MAX_LINKS) } else { 1 })
+            .collect(),
+        CableLinks::Auto => {
+            // The frequency range from the modes with the cables' mass at their ends; when
+            // those are fewer than asked for (or none: a span between anchors), unknown.
+            let highest = match modes_lumped(statics, eq, count, watch) {
+                Ok(l) if l.modes.len() >= count => l.modes.last().map_or(f64::NAN, |m| m.frequency_hz),
+                Err(ModeError::Stopped) => return Err(ModeError::Stopped),
+                _ => f64::NAN,
+            };
+            auto_links(model, eq, highest)
+        }
+    };
+    let sub = subdivide(model, eq, case, &per_member);
+    if sub.cables.is_empty() {
+        return modes_lumped(statics, eq, count, watch);
+    }
+    let mut finer = Statics::new(&sub.model);
+    finer.settings = statics.settings.clone();
+    let fallback = |why: String| -> Result<Modes, ModeError> {
+        let mut m = modes_lumped(statics, eq, count, watch)?;
+        m.note = Some(format!(
+            "the cables' own modes are left out (each cable's mass is lumped at its ends): {why}"
+        ));
+        Ok(m)
+    };
+    let eq2 = match finer.solve(case, Some(&sub.warm)) {
+        Ok(e) if e.stability.is_stable() => e,
+        Ok(e) => return fallback(format!("the rig with its cables cut into links is {}", e.stability.describe())),
+        Err(e) => return fallback(format!("the rig with its cables cut into links has no equilibrium: {e}")),
+    };
+    let mut ms = match modes_lumped(&finer, &eq2, count, watch) {
+        Ok(m) => m,
+        Err(ModeError::Stopped) => return Err(ModeError::Stopped),
+        Err(e) => return fallback(e.to_string()),
+    };
+    let original = model.nodes.len();
+    let masses = sub.model.dynamic_masses();
+    for mode in &mut ms.modes {
+        // φ is mass-normalised: Σ m φ² = 1 over all joints.
+        let inner: f64 = mode.shape[original..]
+            .iter()
+            .zip(&masses[original..])
+            .map(|(v, m)| m * v.norm_squared())
+            .sum();
+        mode.cable_share = inner.clamp(0.0, 1.0);
+        mode.shape.truncate(original);
+    }
+    ms.cables = sub.cables;
+    Ok(ms)
+}
+
+/// The modes with every sagging cable's mass lumped half at each end.
+fn modes_lumped(statics: &Statics, eq: &Equilibrium, count: usize, watch: &Watch) -> Result<Modes, ModeError> {
     if !eq.stability.is_stable() {
         return Err(ModeError::NotStable(eq.stability.describe()));
     }
@@ -165,10 +253,16 @@ pub fn modes_watched(statics: &Statics, eq: &Equilibrium, count: usize, watch: &
                 omega,
                 shape,
                 effective_mass: participation.map(|p| p * p),
+                cable_share: 0.0,
             }
         })
         .collect();
-    Ok(Modes { modes: out, mobile_mass })
+    Ok(Modes {
+        modes: out,
+        mobile_mass,
+        cables: Vec::new(),
+        note: None,
+    })
 }
 
 /// `φ = ω² K⁻¹ M^½ y` on all free DOFs for every pair `(1/ω², y)`, in one multi-column solve.
