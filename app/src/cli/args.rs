@@ -112,6 +112,10 @@ pub enum Command {
         /// Also pluck at this many growing amplitudes up to the offset (backbone curve).
         #[arg(long)]
         backbone: Option<usize>,
+        /// Links each sagging cable is cut into so that its own mass moves (default 16; 1
+        /// lumps each cable's mass at its ends).
+        #[arg(long)]
+        cable_links: Option<usize>,
         /// Load case name (default: the first case).
         #[arg(long)]
         case: Option<String>,

@@ -3,6 +3,7 @@
 use std::fmt::Write as _;
 use std::path::Path;
 
+use rigwright_core::dynamics::subdivide::{PluckRig, pluck_rig};
 use rigwright_core::dynamics::{
     CableLinks, MotionSettings, PluckSpec, Record, backbone, modes, modes_with, pulled_positions, rayleigh_coefficients, record,
 };
@@ -116,6 +117,20 @@ pub fn modes_command(model: &Model, case: usize, count: usize, links: CableLinks
     Ok(s)
 }
 
+/// Force histories of the original members from those of the Pluck rig's (a cable cut into
+/// links: the largest of its links' tensions at each sample).
+fn collapse_histories(rig: &PluckRig, histories: &[Vec<f64>]) -> Vec<Vec<f64>> {
+    let samples = histories.first().map_or(0, Vec::len);
+    rig.members
+        .iter()
+        .map(|ids| {
+            (0..samples)
+                .map(|t| ids.iter().map(|&i| histories[i][t]).fold(f64::NEG_INFINITY, f64::max))
+                .collect()
+        })
+        .collect()
+}
+
 /// Arguments of `rigwright pluck`.
 pub struct PluckArgs<'a> {
     pub case: usize,
@@ -126,6 +141,7 @@ pub struct PluckArgs<'a> {
     pub damping: Option<f64>,
     pub rho_inf: Option<f64>,
     pub backbone: Option<usize>,
+    pub links: CableLinks,
     pub csv: Option<&'a Path>,
     pub json: bool,
 }
@@ -178,13 +194,16 @@ pub fn pluck_command(model: &Model, a: &PluckArgs) -> Result<String, Failure> {
         message: format!("could not pull node `{}`: {e}", a.node),
     };
     let start = pulled_positions(model, a.case, &eq, node, a.offset).map_err(pull_fail)?;
-    let about = eq.positions();
+    // Sagging cables cut into links so that their own mass moves.
+    let rig = pluck_rig(model, a.case, &eq, &start, node, a.links).map_err(pull_fail)?;
     let motion_fail = |e: rigwright_core::dynamics::MotionError| Failure {
         code: EXIT_NO_EQUILIBRIUM,
         message: e.to_string(),
     };
-    let mut motion = rigwright_core::dynamics::Motion::new(model, a.case, &start, None, &about, settings.clone()).map_err(motion_fail)?;
-    let rec = record(&mut motion, model, node, about[node], a.duration, 20_000).map_err(motion_fail)?;
+    let mut motion =
+        rigwright_core::dynamics::Motion::new(&rig.model, a.case, &rig.start, None, &rig.about, settings.clone()).map_err(motion_fail)?;
+    let mut rec = record(&mut motion, &rig.model, node, rig.about[node], a.duration, 20_000).map_err(motion_fail)?;
+    rec.member_force = collapse_histories(&rig, &rec.member_force);
     let dir = a.offset.normalize();
     let dominant = rec.dominant_frequency(&dir);
     let curve = match a.backbone {
@@ -233,6 +252,7 @@ pub fn pluck_command(model: &Model, a: &PluckArgs) -> Result<String, Failure> {
             "linear_frequency_hz": ms.modes[0].frequency_hz,
             "energy_error": rec.energy_error(),
             "slack_events": rec.slack_events,
+            "cables": rig.cables,
             "members": members,
             "backbone": curve,
             "history": {"time": rec.time, "displacement": rec.displacement.iter().map(|u| [u.x, u.y, u.z]).collect::<Vec<_>>(),
@@ -247,6 +267,18 @@ pub fn pluck_command(model: &Model, a: &PluckArgs) -> Result<String, Failure> {
         a.node, eq.case, a.offset.x, a.offset.y, a.offset.z
     );
     let _ = writeln!(s, "time step {dt:.3e} s, duration {:.3} s, {} samples", a.duration, rec.time.len());
+    if !rig.cables.is_empty() {
+        let list: Vec<String> = rig.cables.iter().map(|c| format!("`{}` {}", c.member, c.links)).collect();
+        let list = if list.len() > 8 {
+            format!("{} and {} more", list[..6].join(", "), list.len() - 6)
+        } else {
+            list.join(", ")
+        };
+        let _ = writeln!(
+            s,
+            "sagging cables cut into links so that their own mass moves (a cable's force: its largest link tension): {list}"
+        );
+    }
     match dominant {
         Some(f) => {
             let _ = writeln!(

@@ -214,16 +214,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
             if count == 0 {
                 return Err(Failure::input("--count 0: ask for at least one mode"));
             }
-            let links = match cable_links {
-                None => rigwright_core::dynamics::CableLinks::Auto,
-                Some(n @ 1..=rigwright_core::dynamics::subdivide::MAX_LINKS) => rigwright_core::dynamics::CableLinks::Each(n),
-                Some(n) => {
-                    return Err(Failure::input(format!(
-                        "--cable-links {n}: give 1 to {} links per cable",
-                        rigwright_core::dynamics::subdivide::MAX_LINKS
-                    )));
-                }
-            };
+            let links = cable_links_arg(cable_links)?;
             let (model, case) = load_case(&file, case.as_deref())?;
             print_output(&dynamics::modes_command(&model, case, count, links, json)?, json);
             Ok(())
@@ -237,10 +228,12 @@ pub fn run(command: Command) -> Result<(), Failure> {
             damping,
             rho_inf,
             backbone,
+            cable_links,
             case,
             csv,
             json,
         } => {
+            let links = cable_links_arg(cable_links)?;
             let (model, case) = load_case(&file, case.as_deref())?;
             let offset = parse_offset(&offset)?;
             let args = dynamics::PluckArgs {
@@ -252,6 +245,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
                 damping,
                 rho_inf,
                 backbone,
+                links,
                 csv: csv.as_deref(),
                 json,
             };
@@ -342,5 +336,15 @@ pub fn run(command: Command) -> Result<(), Failure> {
             }
             Ok(())
         }
+    }
+}
+
+/// `--cable-links N`: 1 to the most links a cable may be cut into; absent, chosen.
+fn cable_links_arg(n: Option<usize>) -> Result<rigwright_core::dynamics::CableLinks, Failure> {
+    use rigwright_core::dynamics::{CableLinks, subdivide::MAX_LINKS};
+    match n {
+        None => Ok(CableLinks::Auto),
+        Some(n @ 1..=MAX_LINKS) => Ok(CableLinks::Each(n)),
+        Some(n) => Err(Failure::input(format!("--cable-links {n}: give 1 to {MAX_LINKS} links per cable"))),
     }
 }

@@ -9,7 +9,8 @@
 use std::sync::Arc;
 use std::time::Instant;
 
-use rigwright_core::dynamics::{Motion, MotionSettings, modes_watched, spectrum::spectrum};
+use rigwright_core::dynamics::subdivide::pluck_rig;
+use rigwright_core::dynamics::{CableLinks, Motion, MotionSettings, modes_watched, spectrum::spectrum};
 use rigwright_core::{Equilibrium, Model, Statics, Vec3, Warm, Watch};
 
 use super::RigApp;
@@ -23,7 +24,12 @@ const FRAME_BUDGET: f64 = 0.030;
 
 /// A Pluck in progress.
 pub struct PluckSession {
+    /// The rig in motion: the rig itself, or with its sagging cables cut into links (their
+    /// joints after its `original_nodes` nodes).
     pub model: Arc<Model>,
+    pub original_nodes: usize,
+    /// Sagging cables cut into links, and how many.
+    pub cables: Vec<(String, usize)>,
     pub node: usize,
     pub node_id: String,
     /// Unit direction of the pull, for the displacement history.
@@ -54,8 +60,7 @@ pub struct PluckSession {
 impl PluckSession {
     /// Starts the motion from `start` (positions of the pulled, held rig) about `eq`.
     pub fn start(model: Arc<Model>, case: usize, eq: &Equilibrium, start: Vec<Vec3>, node: usize, watch: &Watch) -> Result<Self, String> {
-        let about = eq.positions();
-        let offset = start[node] - about[node];
+        let offset = start[node] - eq.positions()[node];
         let direction = if offset.norm() > 0.0 { offset.normalize() } else { Vec3::y() };
         let statics = Statics::new(&model);
         let linear = modes_watched(&statics, eq, 1, watch)
@@ -66,11 +71,25 @@ impl PluckSession {
         if watch.stopped() {
             return Err("cancelled".into());
         }
-        let motion =
-            Motion::new(&model, case, &start, None, &about, MotionSettings { dt, ..Default::default() }).map_err(|e| e.to_string())?;
+        // Sagging cables cut into links so that their own mass moves (drawn link by link).
+        let rig = pluck_rig(&model, case, eq, &start, node, CableLinks::Auto).map_err(|e| e.to_string())?;
+        let original_nodes = model.nodes.len();
+        let motion = Motion::new(
+            &rig.model,
+            case,
+            &rig.start,
+            None,
+            &rig.about,
+            MotionSettings { dt, ..Default::default() },
+        )
+        .map_err(|e| e.to_string())?;
         let node_id = model.nodes[node].id.clone();
+        let cables = rig.cables.iter().map(|c| (c.member.clone(), c.links)).collect();
+        let about = rig.about;
         let mut s = PluckSession {
-            model,
+            model: if rig.cables.is_empty() { model } else { Arc::new(rig.model) },
+            original_nodes,
+            cables,
             node,
             node_id,
             direction,

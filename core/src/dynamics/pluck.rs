@@ -5,6 +5,7 @@ use serde::Serialize;
 
 use super::motion::{Energy, Motion, MotionError, MotionSettings};
 use super::spectrum::spectrum;
+use super::subdivide::{CableLinks, pluck_rig};
 use crate::model::{Model, Vec3};
 use crate::solve::{Equilibrium, SolveError, Statics};
 
@@ -131,15 +132,17 @@ pub struct PluckSpec {
     pub settings: MotionSettings,
 }
 
-/// Frequencies of plucks of growing `amplitudes` (m) from equilibrium `eq`.
+/// Frequencies of plucks of growing `amplitudes` (m) from equilibrium `eq`, sagging cables cut
+/// into links ([`pluck_rig`]).
 pub fn backbone(model: &Model, eq: &Equilibrium, spec: &PluckSpec, amplitudes: &[f64]) -> Result<Vec<BackbonePoint>, PluckError> {
     let about = eq.positions();
     amplitudes
         .iter()
         .map(|&a| {
             let start = pulled_positions(model, spec.case, eq, spec.node, spec.direction * a)?;
-            let mut motion = Motion::new(model, spec.case, &start, None, &about, spec.settings.clone())?;
-            let rec = record(&mut motion, model, spec.node, about[spec.node], spec.duration, 20_000)?;
+            let rig = pluck_rig(model, spec.case, eq, &start, spec.node, CableLinks::Auto)?;
+            let mut motion = Motion::new(&rig.model, spec.case, &rig.start, None, &rig.about, spec.settings.clone())?;
+            let rec = record(&mut motion, &rig.model, spec.node, about[spec.node], spec.duration, 20_000)?;
             Ok(BackbonePoint {
                 amplitude: a,
                 frequency_hz: rec.dominant_frequency(&spec.direction),

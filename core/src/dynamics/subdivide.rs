@@ -56,6 +56,8 @@ pub struct Subdivided {
     pub warm: Warm,
     /// The cables subdivided.
     pub cables: Vec<Subdivision>,
+    /// For each original member, the members of `model` it became (itself, or its links).
+    pub members_of: Vec<Vec<usize>>,
 }
 
 /// Fundamental frequency of a cable as a taut string of its mean end tension (Hz).
@@ -112,15 +114,20 @@ pub fn subdivide(model: &Model, eq: &Equilibrium, case: usize, links: &[usize]) 
     let mut positions = eq.positions();
     let mut members = Vec::new();
     let mut cables = Vec::new();
+    let mut members_of = Vec::with_capacity(model.members.len());
     let taken = |nodes: &[Node], id: &str| nodes.iter().any(|n| n.id == id);
     for (i, m) in model.members.iter().enumerate() {
+        let first = members.len();
+        members_of.push(Vec::new());
         let n = links.get(i).copied().unwrap_or(1).min(MAX_LINKS);
         let MemberKind::Cable { ea, l0 } = m.kind else {
             members.push(m.clone());
+            members_of[i] = vec![first];
             continue;
         };
         if !m.sags() {
             members.push(m.clone());
+            members_of[i] = vec![first];
             continue;
         }
         let [a, b] = m.ends;
@@ -128,6 +135,7 @@ pub fn subdivide(model: &Model, eq: &Equilibrium, case: usize, links: &[usize]) 
         if n < 2 {
             // Whole: one exact element, its mass lumped at its ends for the dynamics.
             members.push(m.clone());
+            members_of[i] = vec![first];
             continue;
         }
         let (pa, pb) = (positions[a], positions[b]);
@@ -177,6 +185,7 @@ pub fn subdivide(model: &Model, eq: &Equilibrium, case: usize, links: &[usize]) 
             });
             previous = next;
         }
+        members_of[i] = (first..members.len()).collect();
         cables.push(Subdivision {
             member: m.id.clone(),
             links: n,
@@ -196,5 +205,118 @@ pub fn subdivide(model: &Model, eq: &Equilibrium, case: usize, links: &[usize]) 
             route: eq.route.clone(),
         },
         cables,
+        members_of,
     }
+}
+
+impl Subdivided {
+    /// Positions of every node of the subdivided rig for the original rig's node positions
+    /// `positions`: the original nodes there, each cable's joints on its exact static curve
+    /// between its ends (the shape it has in any equilibrium, the joints' own weight aside).
+    pub fn place(&self, original: &Model, case: usize, positions: &[Vec3]) -> Vec<Vec3> {
+        let gravity = original.case_gravity(case);
+        let mut out: Vec<Vec3> = positions.to_vec();
+        out.resize(self.model.nodes.len(), Vec3::zeros());
+        let mut next = original.nodes.len();
+        for c in &self.cables {
+            let Some(m) = original.members.iter().find(|m| m.id == c.member) else {
+                continue;
+            };
+            let [a, b] = m.ends;
+            let (pa, pb) = (positions[a], positions[b]);
+            let chord = pb - pa;
+            let l0 = m.kind.rest_length();
+            let u_a = pa - original.nodes[a].position;
+            let shape = respond(&m.kind, m.mass_per_length, &chord, &gravity, &u_a).and_then(|r| r.sag);
+            for k in 1..c.links {
+                let s = l0 * k as f64 / c.links as f64;
+                out[next] = match &shape {
+                    Some(sag) => {
+                        let (x, z) = sag.cable.point_at(&sag.hang, s);
+                        pa + sag.horizontal * x + sag.up * z
+                    }
+                    None => pa + chord * (s / l0),
+                };
+                next += 1;
+            }
+        }
+        out
+    }
+}
+
+/// A rig ready for a Pluck with its sagging cables cut into links: the rig, where the motion
+/// starts (the pulled node held where the original rig's pull put it, the rest in
+/// equilibrium), the equilibrium it vibrates about, and which of its members each original
+/// member became.
+#[derive(Debug, Clone)]
+pub struct PluckRig {
+    pub model: Model,
+    pub start: Vec<Vec3>,
+    pub about: Vec<Vec3>,
+    pub members: Vec<Vec<usize>>,
+    pub cables: Vec<Subdivision>,
+}
+
+impl PluckRig {
+    /// The original members' forces from the subdivided rig's: a cable cut into links has the
+    /// largest of its links' tensions (N).
+    pub fn original_forces(&self, forces: &[f64]) -> Vec<f64> {
+        self.members
+            .iter()
+            .map(|ids| ids.iter().map(|&i| forces[i]).fold(f64::NEG_INFINITY, f64::max))
+            .collect()
+    }
+}
+
+/// The Pluck rig for equilibrium `eq` of `case` and the pulled, held positions `start` of the
+/// original rig with `node` held. With no sagging cable (or links 1) it is the original rig.
+pub fn pluck_rig(
+    model: &Model,
+    case: usize,
+    eq: &Equilibrium,
+    start: &[Vec3],
+    node: usize,
+    links: CableLinks,
+) -> Result<PluckRig, crate::solve::SolveError> {
+    let per_member: Vec<usize> = match links {
+        CableLinks::Each(n) => model
+            .members
+            .iter()
+            .map(|m| if m.sags() { n.clamp(1, MAX_LINKS) } else { 1 })
+            .collect(),
+        CableLinks::Auto => auto_links(model, eq, f64::NAN),
+    };
+    let whole = || PluckRig {
+        model: model.clone(),
+        start: start.to_vec(),
+        about: eq.positions(),
+        members: (0..model.members.len()).map(|i| vec![i]).collect(),
+        cables: Vec::new(),
+    };
+    if model.case_gravity(case).norm() == 0.0 || !model.members.iter().any(|m| m.sags()) {
+        return Ok(whole());
+    }
+    let sub = subdivide(model, eq, case, &per_member);
+    if sub.cables.is_empty() {
+        return Ok(whole());
+    }
+    let about = crate::solve::Statics::new(&sub.model).solve(case, Some(&sub.warm))?;
+    if !about.stability.is_stable() {
+        return Err(crate::solve::SolveError::NotStable(about.stability.describe()));
+    }
+    let guess = Warm {
+        positions: sub.place(model, case, start),
+        route: about.route.clone(),
+    };
+    let held = crate::solve::Statics::holding(&sub.model, node).solve_held(case, start[node], Some(&guess))?;
+    if !held.stability.is_stable() {
+        return Err(crate::solve::SolveError::NotStable(held.stability.describe()));
+    }
+    Ok(PluckRig {
+        members: sub.members_of.clone(),
+        model: sub.model,
+        start: held.positions(),
+        about: about.positions(),
+        cables: sub.cables,
+    })
 }

@@ -162,10 +162,22 @@ pub(super) fn modes_block(sheet: &Sheet, fmt: &Fmt, width: f32) -> Block {
                     Align::Right,
                 ));
             }
+            let mut lines = Vec::new();
+            if !m.cables.is_empty() {
+                let links: usize = m.cables.iter().map(|c| c.links).sum();
+                lines.push(format!(
+                    "With {} sagging cable{} cut into {links} links, so that their own mass vibrates.",
+                    m.cables.len(),
+                    if m.cables.len() == 1 { "" } else { "s" }
+                ));
+            }
+            if let Some(note) = &m.note {
+                lines.push(format!("Note: {note}."));
+            }
             Block {
                 title,
                 table: Some(Table::new(columns, rows, width)),
-                lines: Vec::new(),
+                lines,
             }
         }
         Ok(_) => Block {

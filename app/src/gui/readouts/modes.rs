@@ -58,6 +58,18 @@ pub(super) fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
     };
     let mass_unit = units.symbol(Quantity::Mass);
     let mut choice = state.animate;
+    let cables = !list.cables.is_empty();
+    if cables {
+        let links: usize = list.cables.iter().map(|c| c.links).sum();
+        ui.label(format!(
+            "{} sagging cable{} cut into {links} links so that their own mass vibrates; \"in the cables\" is each mode's share of energy there",
+            list.cables.len(),
+            if list.cables.len() == 1 { "" } else { "s" }
+        ));
+    }
+    if let Some(note) = &list.note {
+        ui.colored_label(pal::ALARM, format!("Note: {note}"));
+    }
     egui::ScrollArea::vertical().show(ui, |ui| {
         egui::Grid::new("modes-table").striped(true).show(ui, |ui| {
             for h in [
@@ -65,6 +77,7 @@ pub(super) fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
                 "frequency (Hz)",
                 "period (s)",
                 &format!("effective mass x, y, z ({mass_unit})"),
+                if cables { "in the cables (%)" } else { "" },
                 "",
             ] {
                 ui.label(RichText::new(h).strong());
@@ -76,6 +89,11 @@ pub(super) fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
                 ui.label(format!("{:.5}", m.period_s));
                 let em = m.effective_mass.map(|v| units.to_display(Quantity::Mass, v));
                 ui.label(format!("{:.2}, {:.2}, {:.2}", em[0], em[1], em[2]));
+                ui.label(if cables {
+                    format!("{:.1}", 100.0 * m.cable_share)
+                } else {
+                    String::new()
+                });
                 let on = choice == Some(k);
                 if ui
                     .selectable_label(on, if on { "Animating" } else { "Animate" })

@@ -63,6 +63,21 @@ pub(super) fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
         ));
         ui.label(format!("energy error {:.1e} of the energy in play", p.energy_error));
         ui.label(format!("cable slack events {}", p.motion.slack_events()));
+        if !p.cables.is_empty() {
+            let links: usize = p.cables.iter().map(|c| c.1).sum();
+            ui.label(format!(
+                "{} sagging cable{} cut into {links} links so that their own mass moves",
+                p.cables.len(),
+                if p.cables.len() == 1 { "" } else { "s" }
+            ))
+            .on_hover_text(
+                p.cables
+                    .iter()
+                    .map(|(id, n)| format!("{id}: {n} links"))
+                    .collect::<Vec<_>>()
+                    .join("\n"),
+            );
+        }
         let u = p.motion.positions()[p.node] - p.about[p.node];
         ui.label(format!(
             "displacement of `{}` {}",

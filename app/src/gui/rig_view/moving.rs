@@ -10,9 +10,9 @@ use crate::gui::palette as pal;
 
 /// Draws the moving rig (Pluck or an animated mode) on the Rig view.
 pub(super) fn draw_moving(app: &RigApp, painter: &egui::Painter, positions: &[Vec3], forces: Option<&[f64]>) {
-    let model: &Model = match (&app.pluck, app.answer()) {
-        (Some(p), _) => &p.model,
-        (None, Some(a)) => a.model,
+    let (model, nodes): (&Model, usize) = match (&app.pluck, app.answer()) {
+        (Some(p), _) => (&p.model, p.original_nodes),
+        (None, Some(a)) => (a.model, a.model.nodes.len()),
         _ => return,
     };
     let view = &app.view;
@@ -32,7 +32,8 @@ pub(super) fn draw_moving(app: &RigApp, painter: &egui::Painter, positions: &[Ve
             painter.line_segment([a, b], Stroke::new(3.0, colour));
         }
     }
-    for (i, n) in model.nodes.iter().enumerate() {
+    // The rig's own nodes; the joints of cables cut into links are drawn by their links.
+    for (i, n) in model.nodes.iter().enumerate().take(nodes) {
         let s: Pos2 = view.to_screen(positions[i]);
         let r = if n.mass > 0.0 { 5.0 } else { 3.0 };
         painter.circle(
