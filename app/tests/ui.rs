@@ -136,7 +136,13 @@ fn pulling_a_node_shows_a_restoring_force_that_grows_with_the_pull() {
     h.run_steps(6);
     assert!(!h.state().pull.as_ref().unwrap().active);
     assert!(h.state().answer().is_some(), "after release the rig is solved again");
-    let t0 = h.state().pluck.as_ref().expect("letting go starts a Pluck").motion.time();
+    let t0 = h
+        .state()
+        .pluck
+        .as_ref()
+        .unwrap_or_else(|| panic!("letting go starts a Pluck: {:?}", h.state().message))
+        .motion
+        .time();
     h.run_steps(20);
     let p = h.state().pluck.as_ref().expect("the Pluck keeps running");
     assert!(p.motion.time() > t0, "the rig moves in time");

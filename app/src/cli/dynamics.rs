@@ -253,6 +253,7 @@ pub fn pluck_command(model: &Model, a: &PluckArgs) -> Result<String, Failure> {
             "energy_error": rec.energy_error(),
             "slack_events": rec.slack_events,
             "cables": rig.cables,
+            "note": rig.note,
             "members": members,
             "backbone": curve,
             "history": {"time": rec.time, "displacement": rec.displacement.iter().map(|u| [u.x, u.y, u.z]).collect::<Vec<_>>(),
@@ -278,6 +279,9 @@ pub fn pluck_command(model: &Model, a: &PluckArgs) -> Result<String, Failure> {
             s,
             "sagging cables cut into links so that their own mass moves (a cable's force: its largest link tension): {list}"
         );
+    }
+    if let Some(note) = &rig.note {
+        let _ = writeln!(s, "note: {note}");
     }
     match dominant {
         Some(f) => {

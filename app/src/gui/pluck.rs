@@ -24,12 +24,16 @@ const FRAME_BUDGET: f64 = 0.030;
 
 /// A Pluck in progress.
 pub struct PluckSession {
+    /// The rig plucked (an edit to it ends the Pluck).
+    pub model: Arc<Model>,
     /// The rig in motion: the rig itself, or with its sagging cables cut into links (their
     /// joints after its `original_nodes` nodes).
-    pub model: Arc<Model>,
+    pub rig: Arc<Model>,
     pub original_nodes: usize,
     /// Sagging cables cut into links, and how many.
     pub cables: Vec<(String, usize)>,
+    /// Why the cables were left whole, when they were.
+    pub note: Option<String>,
     pub node: usize,
     pub node_id: String,
     /// Unit direction of the pull, for the displacement history.
@@ -86,8 +90,15 @@ impl PluckSession {
         let node_id = model.nodes[node].id.clone();
         let cables = rig.cables.iter().map(|c| (c.member.clone(), c.links)).collect();
         let about = rig.about;
+        let note = rig.note;
         let mut s = PluckSession {
-            model: if rig.cables.is_empty() { model } else { Arc::new(rig.model) },
+            note,
+            rig: if rig.cables.is_empty() {
+                model.clone()
+            } else {
+                Arc::new(rig.model)
+            },
+            model,
             original_nodes,
             cables,
             node,

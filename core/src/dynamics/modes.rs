@@ -27,6 +27,9 @@ use super::subdivide::{CableLinks, MAX_LINKS, Subdivision, auto_links, subdivide
 
 /// Largest number of massive DOFs solved with the dense eigensolver.
 const DENSE_LIMIT: usize = 600;
+/// The frequency range that sets the cables' links spans at least this many modes, so that
+/// asking for fewer modes gives the same ones.
+const AUTO_RANGE_MODES: usize = 12;
 /// Block size of the Lanczos iteration.
 const BLOCK: usize = 4;
 
@@ -121,8 +124,10 @@ pub fn modes_with(statics: &Statics, eq: &Equilibrium, count: usize, links: Cabl
         CableLinks::Auto => {
             // The frequency range from the modes with the cables' mass at their ends; when
             // those are fewer than asked for (or none: a span between anchors), unknown.
-            let highest = match modes_lumped(statics, eq, count, watch) {
-                Ok(l) if l.modes.len() >= count => l.modes.last().map_or(f64::NAN, |m| m.frequency_hz),
+            // At least the lowest 12, so that asking for fewer modes gives the same ones.
+            let wanted = count.max(AUTO_RANGE_MODES);
+            let highest = match modes_lumped(statics, eq, wanted, watch) {
+                Ok(l) if l.modes.len() >= wanted => l.modes.last().map_or(f64::NAN, |m| m.frequency_hz),
                 Err(ModeError::Stopped) => return Err(ModeError::Stopped),
                 _ => f64::NAN,
             };

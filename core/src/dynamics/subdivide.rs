@@ -13,7 +13,8 @@
 //!
 //! `n` by default follows the frequency range wanted: the rig's modes are first found with
 //! each cable's mass lumped at its ends, and a cable gets 8 links per mode of its own, as a
-//! taut string of its mean tension, below 1.5 × the highest frequency asked for (8 to 64
+//! taut string of its mean tension, below 1.5 × the highest frequency asked for (at least
+//! the 12th, so that asking for fewer modes gives the same ones) (8 to 64
 //! links; a chain of `n` links has its `k`-th frequency low by about `(kπ/2n)²/6`, 0.6 % at
 //! `n = 8k`; 16 links when the range is unknown). A rig with many cables shares a budget of extra joints (`4 ×` its nodes
 //! `+ 2,000`) among them. The user may fix `n` instead; `n = 1` keeps the lumped ends.
@@ -255,6 +256,8 @@ pub struct PluckRig {
     pub about: Vec<Vec3>,
     pub members: Vec<Vec<usize>>,
     pub cables: Vec<Subdivision>,
+    /// Why the cables were left whole (their mass lumped at their ends), when they were.
+    pub note: Option<String>,
 }
 
 impl PluckRig {
@@ -286,37 +289,47 @@ pub fn pluck_rig(
             .collect(),
         CableLinks::Auto => auto_links(model, eq, f64::NAN),
     };
-    let whole = || PluckRig {
+    let whole = |note: Option<String>| PluckRig {
         model: model.clone(),
         start: start.to_vec(),
         about: eq.positions(),
         members: (0..model.members.len()).map(|i| vec![i]).collect(),
         cables: Vec::new(),
+        note,
     };
     if model.case_gravity(case).norm() == 0.0 || !model.members.iter().any(|m| m.sags()) {
-        return Ok(whole());
+        return Ok(whole(None));
     }
     let sub = subdivide(model, eq, case, &per_member);
     if sub.cables.is_empty() {
-        return Ok(whole());
+        return Ok(whole(None));
     }
-    let about = crate::solve::Statics::new(&sub.model).solve(case, Some(&sub.warm))?;
-    if !about.stability.is_stable() {
-        return Err(crate::solve::SolveError::NotStable(about.stability.describe()));
-    }
+    let lumped = |why: String| Ok(whole(Some(format!("the cables' own mass is lumped at their ends: {why}"))));
+    let about = match crate::solve::Statics::new(&sub.model).solve(case, Some(&sub.warm)) {
+        Ok(e) if e.stability.is_stable() => e,
+        Ok(e) => return lumped(format!("the rig with its cables cut into links is {}", e.stability.describe())),
+        Err(e) => return lumped(format!("the rig with its cables cut into links has no equilibrium: {e}")),
+    };
     let guess = Warm {
         positions: sub.place(model, case, start),
         route: about.route.clone(),
     };
-    let held = crate::solve::Statics::holding(&sub.model, node).solve_held(case, start[node], Some(&guess))?;
-    if !held.stability.is_stable() {
-        return Err(crate::solve::SolveError::NotStable(held.stability.describe()));
-    }
+    let held = match crate::solve::Statics::holding(&sub.model, node).solve_held(case, start[node], Some(&guess)) {
+        Ok(e) if e.stability.is_stable() => e,
+        Ok(e) => {
+            return lumped(format!(
+                "the pulled rig with its cables cut into links is {}",
+                e.stability.describe()
+            ));
+        }
+        Err(e) => return lumped(format!("the pulled rig with its cables cut into links has no equilibrium: {e}")),
+    };
     Ok(PluckRig {
         members: sub.members_of.clone(),
         model: sub.model,
         start: held.positions(),
         about: about.positions(),
         cables: sub.cables,
+        note: None,
     })
 }

@@ -78,6 +78,9 @@ pub(super) fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
                     .join("\n"),
             );
         }
+        if let Some(note) = &p.note {
+            ui.colored_label(pal::ALARM, format!("Note: {note}"));
+        }
         let u = p.motion.positions()[p.node] - p.about[p.node];
         ui.label(format!(
             "displacement of `{}` {}",

@@ -11,7 +11,7 @@ use crate::gui::palette as pal;
 /// Draws the moving rig (Pluck or an animated mode) on the Rig view.
 pub(super) fn draw_moving(app: &RigApp, painter: &egui::Painter, positions: &[Vec3], forces: Option<&[f64]>) {
     let (model, nodes): (&Model, usize) = match (&app.pluck, app.answer()) {
-        (Some(p), _) => (&p.model, p.original_nodes),
+        (Some(p), _) => (&p.rig, p.original_nodes),
         (None, Some(a)) => (a.model, a.model.nodes.len()),
         _ => return,
     };
