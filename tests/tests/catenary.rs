@@ -343,3 +343,108 @@ fn a_cable_on_a_vertical_chord_has_the_closed_form_forces_and_stiffness() {
     let k = r.elastic + r.geometric;
     assert!(k[(0, 0)].abs() < 1e-9 && k[(1, 1)].abs() < 1e-9, "nothing across: {k}");
 }
+
+/// The sample guyed pole: the top's lateral stiffness with the guys as catenary members,
+/// (1) against the closed-form equivalent-modulus approximation of Ernst (1965; from memory,
+/// shared REFERENCES §2): each guy a straight bar of tangent stiffness
+/// `EA/L / (1 + (w l_h)² EA/(12 T³))` (`l_h` its horizontal span, `T` its tension along the
+/// chord) with the geometric stiffness `T/L` across it, and the pole's `−P/L`; Ernst's form
+/// holds to first order in the weight's effect, here about 6 %, so to about (6 %)² ≈ 0.4 %;
+/// (2) against the same pole with each guy a chain of N straight links carrying its weight
+/// lumped at the joints, whose error falls as 1/N² (Richardson from N = 16, 32, 64 to 1e-6).
+#[test]
+fn a_guyed_poles_top_has_the_stiffness_of_ernsts_modulus_and_of_the_chain() {
+    let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../sample-projects/guyed-pole.rig.ron");
+    let project = Project::load(&path).unwrap();
+    let m = model(&project);
+    let statics = Statics::new(&m);
+    let eq = statics.solve(0, None).unwrap();
+    let top = m.node_index("top").unwrap();
+    let k_top = statics.node_stiffness(&eq, top).unwrap();
+    let x = Vec3::x();
+    let exact = k_top.along(&x);
+    // (1) Ernst.
+    let up = Vec3::y();
+    let mut ernst = 0.0;
+    for (mm, r) in m.members.iter().zip(&eq.members) {
+        let [a, b] = mm.ends;
+        let d = eq.nodes[b].position - eq.nodes[a].position;
+        let l = d.norm();
+        let e = d / l;
+        match mm.kind {
+            MemberKind::Cable { ea, l0 } => {
+                let s = r.sag.as_ref().unwrap();
+                let w = mm.mass_per_length * 9.81;
+                let lh = (d - up * d.dot(&up)).norm();
+                // Tension along the chord: the mean of the ends' components along it.
+                let t = 0.5 * (s.tension_a + s.tension_b);
+                let k_e = ea / l0 / (1.0 + (w * lh).powi(2) * ea / (12.0 * t.powi(3)));
+                ernst += k_e * e.x * e.x + t / l * (1.0 - e.x * e.x);
+            }
+            MemberKind::Strut { .. } => ernst += r.force / l * (1.0 - e.x * e.x),
+            _ => unreachable!(),
+        }
+    }
+    assert!(rel(exact, ernst) < 4e-3, "top stiffness {exact} vs Ernst {ernst} N/m");
+    // (2) Chains of lumped links.
+    let chained = |links: usize| -> f64 {
+        let mut p = project.clone();
+        let guys: Vec<usize> = (0..p.members.len()).filter(|&i| p.members[i].id.starts_with("guy")).collect();
+        for &gi in guys.iter().rev() {
+            let doc = p.members.remove(gi);
+            let mi = m.member_index(&doc.id).unwrap();
+            let MemberKind::Cable { ea, l0 } = m.members[mi].kind else {
+                unreachable!()
+            };
+            let [a, b] = m.members[mi].ends;
+            let (pa, pb) = (m.nodes[a].position, m.nodes[b].position);
+            let joint = doc.mass_per_length * l0 / links as f64;
+            let mut prev = doc.ends.0.clone();
+            for k in 1..=links {
+                let next = if k == links {
+                    doc.ends.1.clone()
+                } else {
+                    let id = format!("{}-{k}", doc.id);
+                    let at = pa + (pb - pa) * (k as f64 / links as f64);
+                    p.nodes.push(NodeDoc {
+                        id: id.clone(),
+                        at: (at.x, at.y, at.z),
+                        mass: joint,
+                        fixed: [false; 3],
+                    });
+                    id
+                };
+                p.members.push(MemberDoc {
+                    id: format!("{}-link{k}", doc.id),
+                    ends: (prev.clone(), next.clone()),
+                    kind: MemberDocKind::Cable {
+                        ea,
+                        rest: Rest::Length(l0 / links as f64),
+                    },
+                    mass_per_length: 0.0,
+                    design: None,
+                });
+                prev = next;
+            }
+            // The top carries half a joint's mass of each guy.
+            let t = p.nodes.iter_mut().find(|n| n.id == "top").unwrap();
+            t.mass += 0.5 * joint;
+        }
+        let cm = model(&p);
+        let st = Statics::new(&cm);
+        let ceq = st.solve(0, None).unwrap();
+        assert!(ceq.stability.is_stable(), "{links} links: {:?}", ceq.stability);
+        st.node_stiffness(&ceq, cm.node_index("top").unwrap()).unwrap().along(&x)
+    };
+    let (k16, k32, k64) = (chained(16), chained(32), chained(64));
+    let ratio = (k32 - k16) / (k64 - k32);
+    assert!(
+        (3.5..4.5).contains(&ratio),
+        "chain convergence ratio {ratio}: {k16}, {k32}, {k64} N/m"
+    );
+    let richardson = k64 + (k64 - k32) / 3.0;
+    assert!(
+        rel(richardson, exact) < 1e-6,
+        "chains → {richardson} vs catenary members {exact} N/m"
+    );
+}

@@ -57,7 +57,7 @@ impl Catenary {
     pub fn span_of(&self, h: f64, v: f64) -> (Vector2<f64>, Matrix2<f64>) {
         let Catenary { ea, l0, q } = *self;
         let vb = v + q * l0;
-        let (ta, tb) = (h.hypot(v), h.hypot(vb));
+        let (ta, tb) = (hyp(h, v), hyp(h, vb));
         let asinh_diff = asinh_difference(vb, v, h);
         let lx = h * l0 / ea + h / q * asinh_diff;
         // (T_b − T_a)/q without cancellation: (V_b² − V²)/(q (T_a + T_b)) = L0 (V + V_b)/(T_a + T_b).
@@ -71,6 +71,12 @@ impl Catenary {
 
     /// Solves for the end forces that make the cable span `(lx, lz)` (m), `lx ≥ 0`.
     pub fn hang(&self, lx: f64, lz: f64) -> Result<Hanging, NoSolution> {
+        self.hang_near(lx, lz, None)
+    }
+
+    /// [`hang`](Self::hang) starting Newton's method from `near`, the `(H, V)` of a nearby
+    /// chord (a neighbouring configuration of the same cable), when given.
+    pub fn hang_near(&self, lx: f64, lz: f64, near: Option<(f64, f64)>) -> Result<Hanging, NoSolution> {
         let Catenary { ea, l0, q } = *self;
         if !(ea > 0.0 && l0 > 0.0 && q > 0.0 && lx.is_finite() && lz.is_finite()) {
             return Err(NoSolution);
@@ -79,20 +85,27 @@ impl Catenary {
         // across it tends to a finite limit, and the forces to those of the vertical cable).
         let lx = lx.max(1e-10 * l0);
         let target = Vector2::new(lx, lz);
-        let (mut h, mut v) = self.first_guess(lx, lz);
-        let scale = lx.hypot(lz).max(l0);
+        let (mut h, mut v) = match near {
+            Some((h, v)) if h > 0.0 && h.is_finite() && v.is_finite() => (h, v),
+            _ => self.first_guess(lx, lz),
+        };
+        let scale = hyp(lx, lz).max(l0);
         let mut last = f64::INFINITY;
+        let done = |h: f64, v: f64, f: Matrix2<f64>| {
+            Ok(Hanging {
+                span: (lx, lz),
+                h,
+                v,
+                flexibility: f,
+            })
+        };
+        // The span and flexibility at the current (H, V), carried from the accepted trial.
+        let (mut at, mut f) = self.span_of(h, v);
         for _ in 0..200 {
-            let (at, f) = self.span_of(h, v);
             let miss = at - target;
             let err = miss.norm();
             if err <= 1e-14 * scale {
-                return Ok(Hanging {
-                    span: (lx, lz),
-                    h,
-                    v,
-                    flexibility: f,
-                });
+                return done(h, v, f);
             }
             let Some(inv) = f.try_inverse() else { return Err(NoSolution) };
             let step = inv * miss;
@@ -102,11 +115,10 @@ impl Catenary {
             for _ in 0..60 {
                 let (hn, vn) = (h - alpha * step.x, v - alpha * step.y);
                 if hn > 0.0 && hn.is_finite() && vn.is_finite() {
-                    let (a2, _) = self.span_of(hn, vn);
+                    let (a2, f2) = self.span_of(hn, vn);
                     let e2 = (a2 - target).norm();
                     if e2 < err || e2 <= 1e-14 * scale {
-                        h = hn;
-                        v = vn;
+                        (h, v, at, f) = (hn, vn, a2, f2);
                         accepted = true;
                         break;
                     }
@@ -116,24 +128,12 @@ impl Catenary {
             if !accepted {
                 // At round-off: the best that can be had.
                 if err <= 1e-11 * scale {
-                    let (_, f) = self.span_of(h, v);
-                    return Ok(Hanging {
-                        span: (lx, lz),
-                        h,
-                        v,
-                        flexibility: f,
-                    });
+                    return done(h, v, f);
                 }
                 return Err(NoSolution);
             }
             if err >= last && err <= 1e-11 * scale {
-                let (_, f) = self.span_of(h, v);
-                return Ok(Hanging {
-                    span: (lx, lz),
-                    h,
-                    v,
-                    flexibility: f,
-                });
+                return done(h, v, f);
             }
             last = err;
         }
@@ -146,7 +146,7 @@ impl Catenary {
     /// `H = q l_x/(2λ)`, `V = −(q/2)(L0 − l_z coth λ)`.
     fn first_guess(&self, lx: f64, lz: f64) -> (f64, f64) {
         let Catenary { ea, l0, q } = *self;
-        let chord = lx.hypot(lz);
+        let chord = hyp(lx, lz);
         let w = q * l0;
         if chord >= l0 {
             let t = (ea * (chord - l0) / l0).max(w);
@@ -162,7 +162,7 @@ impl Catenary {
 
     /// Tension at unstressed arc length `s` (N).
     pub fn tension_at(&self, hang: &Hanging, s: f64) -> f64 {
-        hang.h.hypot(hang.v + self.q * s)
+        hyp(hang.h, hang.v + self.q * s)
     }
 
     /// Position `(x, z)` of the point at unstressed arc length `s` relative to end a (m).
@@ -171,7 +171,7 @@ impl Catenary {
         let (h, v) = (hang.h, hang.v);
         let vs = v + q * s;
         let x = h * s / ea + h / q * asinh_difference(vs, v, h);
-        let (ta, ts) = (h.hypot(v), h.hypot(vs));
+        let (ta, ts) = (hyp(h, v), hyp(h, vs));
         let z = (vs * vs - v * v) / (2.0 * q * ea) + if ta + ts > 0.0 { s * (v + vs) / (ta + ts) } else { 0.0 };
         (x, z)
     }
@@ -185,7 +185,7 @@ impl Catenary {
         let strain = (h * h * l0 + (vb.powi(3) - v.powi(3)) / (3.0 * q)) / (2.0 * ea);
         // ∫ z ds with z(s) = (V(s)² − V²)/(2qEA) + (T(s) − T_a)/q.
         let int_v2 = (vb.powi(3) - v.powi(3)) / (3.0 * q);
-        let ta = h.hypot(v);
+        let ta = hyp(h, v);
         let int_t = (primitive_t(vb, h) - primitive_t(v, h)) / q;
         let int_z = (int_v2 - v * v * l0) / (2.0 * q * ea) + (int_t - ta * l0) / q;
         strain + q * int_z
@@ -201,7 +201,7 @@ impl Catenary {
     /// it is: the point whose tangent is parallel to the chord, `V(s)/H = l_z/l_x`.
     pub fn sag(&self, hang: &Hanging) -> (f64, f64) {
         let (lx, lz) = hang.span;
-        let chord = lx.hypot(lz);
+        let chord = hyp(lx, lz);
         if chord <= 0.0 {
             return (0.0, 0.0);
         }
@@ -215,17 +215,26 @@ impl Catenary {
     /// horizontal span (m).
     pub fn mid_span_sag(&self, hang: &Hanging) -> f64 {
         let (lx, lz) = hang.span;
-        // x(s) rises monotonically (H > 0): bisect for x(s) = lx/2.
+        let (ea, h) = (self.ea, hang.h);
+        // x(s) rises monotonically (H > 0), dx/ds = H (1/EA + 1/T(s)): Newton's method for
+        // x(s) = lx/2, kept inside a shrinking bracket (bisection where a step leaves it).
         let (mut lo, mut hi) = (0.0, self.l0);
+        let mut s = 0.5 * self.l0;
         for _ in 0..100 {
-            let mid = 0.5 * (lo + hi);
-            if self.point_at(hang, mid).0 < 0.5 * lx {
-                lo = mid
-            } else {
-                hi = mid
+            let x = self.point_at(hang, s).0 - 0.5 * lx;
+            if x.abs() <= 1e-15 * lx.max(1e-300) || hi - lo <= 1e-15 * self.l0 {
+                break;
             }
+            if x < 0.0 {
+                lo = s
+            } else {
+                hi = s
+            }
+            let slope = h * (1.0 / ea + 1.0 / self.tension_at(hang, s));
+            let next = s - x / slope;
+            s = if next > lo && next < hi { next } else { 0.5 * (lo + hi) };
         }
-        let (_, z) = self.point_at(hang, 0.5 * (lo + hi));
+        let (_, z) = self.point_at(hang, s);
         0.5 * lz - z
     }
 
@@ -234,7 +243,7 @@ impl Catenary {
         let Catenary { ea, l0, q } = *self;
         let (h, v) = (hang.h, hang.v);
         let vb = v + q * l0;
-        let (ta, tb) = (h.hypot(v), h.hypot(vb));
+        let (ta, tb) = (hyp(h, v), hyp(h, vb));
         let asinh_diff = asinh_difference(vb, v, h);
         let dx = -h / (q * q) * asinh_diff + h / q * l0 / tb;
         let dz = -(vb * vb - v * v) / (2.0 * q * q * ea) + vb * l0 / (q * ea) - (tb - ta) / (q * q) + vb * l0 / (q * tb);
@@ -258,12 +267,12 @@ pub enum GivenTension {
 /// spans `(lx, lz)` (m) with the tension `given`, on the taut side (the shortest cable that
 /// does it). `Err` with the least tension the cable can have there, when `given` is below it.
 pub fn rest_length_for(ea: f64, q: f64, lx: f64, lz: f64, given: GivenTension) -> Result<f64, f64> {
-    let chord = lx.hypot(lz);
+    let chord = hyp(lx, lz);
     let measure = |l0: f64| -> Option<f64> {
         let c = Catenary { ea, l0, q };
         let hang = c.hang(lx, lz).ok()?;
         Some(match given {
-            GivenTension::UpperEnd(_) => hang.h.hypot(hang.v).max(hang.h.hypot(hang.v + q * l0)),
+            GivenTension::UpperEnd(_) => hyp(hang.h, hang.v).max(hyp(hang.h, hang.v + q * l0)),
             GivenTension::Horizontal(_) => hang.h,
         })
     };
@@ -334,24 +343,50 @@ pub fn rest_length_for(ea: f64, q: f64, lx: f64, lz: f64, given: GivenTension) -
     Ok(0.5 * (lo + hi))
 }
 
+/// `√(a² + b²)` without the cost of a correctly rounded `hypot` (within about an ulp of it);
+/// `hypot` itself where the squares would overflow or underflow.
+#[inline]
+fn hyp(a: f64, b: f64) -> f64 {
+    let s = (a * a + b * b).sqrt();
+    if s.is_finite() && s > 1e-150 { s } else { a.hypot(b) }
+}
+
+/// `asinh` through `ln_1p` of an exact rearrangement, `asinh|x| = ln_1p(|x| + x²/(1 + √(1 + x²)))`
+/// (accurate for small and large arguments; the standard `asinh` where `x²` would overflow).
+trait AsinhFast {
+    fn asinh_fast(self) -> f64;
+}
+
+impl AsinhFast for f64 {
+    #[inline]
+    fn asinh_fast(self) -> f64 {
+        let a = self.abs();
+        if a > 1e150 || !a.is_finite() {
+            return self.asinh();
+        }
+        let a2 = a * a;
+        (a + a2 / (1.0 + (1.0 + a2).sqrt())).ln_1p().copysign(self)
+    }
+}
+
 /// `asinh(a/h) − asinh(b/h)` for `h > 0`, without the cancellation of two large values of the
 /// same sign.
 fn asinh_difference(a: f64, b: f64, h: f64) -> f64 {
     if a.signum() == b.signum() && a != 0.0 {
         // asinh(x) − asinh(y) = asinh(x √(1+y²) − y √(1+x²)), exact for the same sign.
         let (x, y) = (a / h, b / h);
-        let (sx, sy) = (x.hypot(1.0), y.hypot(1.0));
+        let (sx, sy) = (hyp(x, 1.0), hyp(y, 1.0));
         // x sy − y sx = (x² sy² − y² sx²)/(x sy + y sx) = (x² − y²)/(x sy + y sx).
         let d = (x - y) * (x + y) / (x * sy + y * sx);
-        d.asinh()
+        d.asinh_fast()
     } else {
-        (a / h).asinh() - (b / h).asinh()
+        (a / h).asinh_fast() - (b / h).asinh_fast()
     }
 }
 
 /// `∫ √(h² + v²) dv = ½ (v √(h² + v²) + h² asinh(v/h))`.
 fn primitive_t(v: f64, h: f64) -> f64 {
-    0.5 * (v * h.hypot(v) + h * h * (v / h).asinh())
+    0.5 * (v * hyp(h, v) + h * h * (v / h).asinh_fast())
 }
 
 #[cfg(test)]
@@ -464,7 +499,7 @@ mod tests {
                 let c = Catenary { ea, l0, q };
                 let hg = c.hang(lx, lz).unwrap();
                 let got = match given {
-                    GivenTension::UpperEnd(_) => hg.h.hypot(hg.v).max(hg.h.hypot(hg.v + q * l0)),
+                    GivenTension::UpperEnd(_) => hyp(hg.h, hg.v).max(hyp(hg.h, hg.v + q * l0)),
                     GivenTension::Horizontal(_) => hg.h,
                 };
                 assert!((got - t).abs() < 1e-9 * t, "{given:?} at ({lx}, {lz}): {got}");

@@ -66,8 +66,21 @@ pub fn sags(kind: &MemberKind, mass_per_length: f64, gravity: &Vec3) -> bool {
 /// case's, times the load factor), end a displaced by `u_a` (m) from its drawn position. `None`
 /// when the member has collapsed to zero length or its catenary has no solution.
 pub fn respond(kind: &MemberKind, mass_per_length: f64, chord: &Vec3, gravity: &Vec3, u_a: &Vec3) -> Option<Response> {
+    respond_near(kind, mass_per_length, chord, gravity, u_a, None)
+}
+
+/// [`respond`] for a sagging cable whose `(H, V)` at a nearby configuration is `near` (its
+/// [`Sag::hang`]): the catenary's solve starts there. The same answer, sooner.
+pub fn respond_near(
+    kind: &MemberKind,
+    mass_per_length: f64,
+    chord: &Vec3,
+    gravity: &Vec3,
+    u_a: &Vec3,
+    near: Option<(f64, f64)>,
+) -> Option<Response> {
     if sags(kind, mass_per_length, gravity) {
-        return sagging(kind, mass_per_length, chord, gravity, u_a);
+        return sagging(kind, mass_per_length, chord, gravity, u_a, near);
     }
     let l = chord.norm();
     if !(l > 0.0 && l.is_finite()) {
@@ -109,7 +122,14 @@ fn plane(chord: &Vec3, up: &Vec3) -> (Vec3, f64, f64) {
     (horizontal, lx, lz)
 }
 
-fn sagging(kind: &MemberKind, mass_per_length: f64, chord: &Vec3, gravity: &Vec3, u_a: &Vec3) -> Option<Response> {
+fn sagging(
+    kind: &MemberKind,
+    mass_per_length: f64,
+    chord: &Vec3,
+    gravity: &Vec3,
+    u_a: &Vec3,
+    near: Option<(f64, f64)>,
+) -> Option<Response> {
     let MemberKind::Cable { ea, l0 } = *kind else { return None };
     let g = gravity.norm();
     let up = -gravity / g;
@@ -119,7 +139,7 @@ fn sagging(kind: &MemberKind, mass_per_length: f64, chord: &Vec3, gravity: &Vec3
         q: mass_per_length * g,
     };
     let (horizontal, lx, lz) = plane(chord, &up);
-    let hang = cable.hang(lx, lz).ok()?;
+    let hang = cable.hang_near(lx, lz, near).ok()?;
     let (h, v) = (hang.h, hang.v);
     let vb = v + cable.q * l0;
     let end_b = horizontal * h + up * vb;

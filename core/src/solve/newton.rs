@@ -106,7 +106,6 @@ impl Statics<'_> {
         for it in 0..=budget {
             let rnorm = norm(&eval.residual);
             let rel = rnorm / eval.scale;
-            let values = sys.assemble(model, u, &load.gravity_at(lambda), Part::Total);
             if rel <= s.tolerance || sys.size() == 0 {
                 let (definiteness, factor) = verdict_at(sys, model, u, &load.gravity_at(lambda));
                 if let Mode::Global { escape: true } = mode
@@ -146,6 +145,7 @@ impl Statics<'_> {
                 return Err(NewtonFail::Cancelled);
             }
             *total += 1;
+            let values = sys.assemble(model, u, &load.gravity_at(lambda), Part::Total);
             let (p, mu) = self.trust_step(&values, &eval.residual, radius, mu_guess, strict)?;
             mu_guess = 0.1 * mu;
             let plen = norm(&p);

@@ -311,22 +311,60 @@ impl Statics<'_> {
     fn convex_along(&self, (a, la): (&[Vec3], f64), (b, lb): (&[Vec3], f64), load: &Loading, samples: usize) -> bool {
         let model = self.model;
         let d: Vec<Vec3> = a.iter().zip(b).map(|(x, y)| y - x).collect();
-        (0..=samples).all(|k| {
-            let s = k as f64 / samples as f64;
+        // Each sagging cable's solve starts from its state at the previous sample.
+        let mut near: Vec<Option<(f64, f64)>> = vec![None; model.members.len()];
+        // Curvature terms at fraction `s`: (straight members' sum and size, whether one is in
+        // compression; sagging cables' sum and size, whether there is one), the sagging cables
+        // solved only when `cables`.
+        let mut terms = |s: f64, cables: bool| -> Option<[f64; 6]> {
             let at: Vec<Vec3> = a.iter().zip(&d).map(|(x, dx)| x + dx * s).collect();
             let gravity = load.gravity_at(la + (lb - la) * s);
-            let (mut curvature, mut size) = (0.0, 0.0);
-            for m in &model.members {
+            let mut t = [0.0; 6];
+            for (m, near) in model.members.iter().zip(near.iter_mut()) {
                 let [i, j] = m.ends;
-                let Some(r) = super::system::member_response(model, m, &at, &gravity) else {
-                    return false;
-                };
+                if !cables && crate::element::response::sags(&m.kind, m.mass_per_length, &gravity) {
+                    continue;
+                }
+                let chord = super::system::member_vector(model, m, &at);
+                let r = crate::element::response::respond_near(&m.kind, m.mass_per_length, &chord, &gravity, &at[i], *near)?;
                 let dm = d[j] - d[i];
                 let (ce, cg) = (dm.dot(&(r.elastic * dm)), dm.dot(&(r.geometric * dm)));
-                curvature += ce + cg;
-                size += ce.abs() + cg.abs();
+                if let Some(sag) = r.sag {
+                    *near = Some((sag.hang.h, sag.hang.v));
+                    t[3] += ce + cg;
+                    t[4] += ce.abs() + cg.abs();
+                    t[5] = 1.0;
+                } else {
+                    t[0] += ce + cg;
+                    t[1] += ce.abs() + cg.abs();
+                    if r.force < 0.0 {
+                        t[2] = 1.0;
+                    }
+                }
             }
-            curvature > 1e-12 * size
+            Some(t)
+        };
+        // A sagging cable's tangent is positive definite (the inverse of its flexibility in
+        // its plane, `H/l_x` across it): its curvature term is never negative. Between samples
+        // where the cables' terms were comfortably positive, and where no straight member is
+        // in compression (the only source of negative terms), the sum stays positive: the
+        // cables need not be solved there (they are at the ends and every eighth sample).
+        let mut cables_positive = false;
+        (0..=samples).all(|k| {
+            let s = k as f64 / samples as f64;
+            let exact = k == 0 || k == samples || k % 8 == 0 || !cables_positive;
+            let t = if exact {
+                terms(s, true)
+            } else {
+                match terms(s, false) {
+                    Some(t) if t[2] == 0.0 => return t[0] >= 0.0,
+                    _ => terms(s, true),
+                }
+            };
+            let Some(t) = t else { return false };
+            let size = t[1] + t[4];
+            cables_positive = t[5] > 0.0 && t[3] > 1e-6 * size && t[2] == 0.0;
+            t[0] + t[3] > 1e-12 * size
         })
     }
 

@@ -72,8 +72,7 @@ pub fn verdict_at(
     disp: &[crate::model::Vec3],
     gravity: &crate::model::Vec3,
 ) -> (Definiteness, Option<Factor>) {
-    let floor = System::slack_floor(model, disp, gravity);
-    verdict(sys, &sys.assemble_for_verdict(model, disp, gravity, floor))
+    verdict(sys, &sys.assemble_verdict_tangent(model, disp, gravity))
 }
 
 fn norm(v: &[f64]) -> f64 {

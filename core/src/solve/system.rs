@@ -278,13 +278,44 @@ impl System {
         self.assemble_members(model, disp, gravity, Part::Total, Some(floor))
     }
 
+    /// [`assemble_for_verdict`](Self::assemble_for_verdict) with the floor of
+    /// [`slack_floor`](Self::slack_floor), each member's response computed once for both.
+    pub fn assemble_verdict_tangent(&self, model: &Model, disp: &[Vec3], gravity: &Vec3) -> Vec<f64> {
+        let responses: Vec<Option<Response>> = model.members.iter().map(|m| member_response(model, m, disp, gravity)).collect();
+        let members = responses.iter().flatten().map(|r| r.force.abs()).fold(0.0, f64::max);
+        let loads = (0..model.cases.len())
+            .flat_map(|c| model.case_forces(c))
+            .map(|f| f.norm())
+            .fold(0.0, f64::max);
+        self.scatter_responses(model, responses.into_iter(), Part::Total, Some(1e-9 * members.max(loads)))
+    }
+
     fn assemble_members(&self, model: &Model, disp: &[Vec3], gravity: &Vec3, part: Part, floor: Option<f64>) -> Vec<f64> {
+        let responses = model.members.iter().zip(&self.scatter).map(|(m, scatter)| {
+            if scatter.is_empty() {
+                None
+            } else {
+                member_response(model, m, disp, gravity)
+            }
+        });
+        self.scatter_responses(model, responses, part, floor)
+    }
+
+    /// Adds each member's tangent block (its `part`) into the stored matrix, leaving out
+    /// straight cables at or below `floor` (N) when given.
+    fn scatter_responses(
+        &self,
+        model: &Model,
+        responses: impl Iterator<Item = Option<Response>>,
+        part: Part,
+        floor: Option<f64>,
+    ) -> Vec<f64> {
         let mut values = vec![0.0; self.nonzeros()];
-        for (m, scatter) in model.members.iter().zip(&self.scatter) {
+        for ((m, scatter), r) in model.members.iter().zip(&self.scatter).zip(responses) {
             if scatter.is_empty() {
                 continue;
             }
-            let Some(r) = member_response(model, m, disp, gravity) else {
+            let Some(r) = r else {
                 continue;
             };
             if let Some(floor) = floor
