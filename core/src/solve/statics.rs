@@ -801,27 +801,6 @@ impl<'m> Statics<'m> {
     }
 }
 
-#[cfg(test)]
-mod tests {
-    use super::*;
-    use crate::gallery::cable_net;
-
-    #[test]
-    fn a_raised_cancel_flag_stops_the_solve_before_its_first_iteration() {
-        let model = cable_net(8, 1.0, 1e6, 1000.0, 2.0).validate().unwrap();
-        let flag = Arc::new(AtomicBool::new(true));
-        let statics = Statics::new(&model).cancel_with(flag.clone());
-        match statics.solve(0, None) {
-            Err(e @ SolveError::Cancelled { iterations: 0 }) => assert!(e.to_string().contains("solve again"), "{e}"),
-            other => panic!("{other:?}"),
-        }
-        // Lowered again, the same solver gives the answer a solver without a flag gives.
-        flag.store(false, Ordering::Relaxed);
-        let plain = Statics::new(&model).solve(0, None).unwrap();
-        assert_eq!(statics.solve(0, None).unwrap(), plain);
-    }
-}
-
 /// Points drawn along a sagging cable.
 const CURVE_POINTS: usize = 24;
 
@@ -846,5 +825,26 @@ fn sag_result(s: &crate::element::response::Sag, at_a: Vec3) -> super::result::S
         stretched_length: c.stretched_length(h),
         weight: c.q * c.l0,
         curve,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::gallery::cable_net;
+
+    #[test]
+    fn a_raised_cancel_flag_stops_the_solve_before_its_first_iteration() {
+        let model = cable_net(8, 1.0, 1e6, 1000.0, 2.0).validate().unwrap();
+        let flag = Arc::new(AtomicBool::new(true));
+        let statics = Statics::new(&model).cancel_with(flag.clone());
+        match statics.solve(0, None) {
+            Err(e @ SolveError::Cancelled { iterations: 0 }) => assert!(e.to_string().contains("solve again"), "{e}"),
+            other => panic!("{other:?}"),
+        }
+        // Lowered again, the same solver gives the answer a solver without a flag gives.
+        flag.store(false, Ordering::Relaxed);
+        let plain = Statics::new(&model).solve(0, None).unwrap();
+        assert_eq!(statics.solve(0, None).unwrap(), plain);
     }
 }
