@@ -448,3 +448,45 @@ fn a_guyed_poles_top_has_the_stiffness_of_ernsts_modulus_and_of_the_chain() {
         "chains → {richardson} vs catenary members {exact} N/m"
     );
 }
+
+/// An inclined span with large sag (chord 80 m across and 30 m up, cable 100 m: its lowest
+/// point lies between the ends): a chain of N straight weightless links with the weight
+/// lumped at the joints converges to the one catenary member as 1/N² — Richardson from
+/// N = 20, 40, 80 gives the anchor forces to 1e-6.
+#[test]
+fn an_inclined_deep_span_of_lumped_links_converges_to_the_catenary_member() {
+    let (span, rise, length, ea, w, g) = (80.0, 30.0, 100.0, 2e7, 15.0, 9.81);
+    let incline = |mut p: Project, lumped: Option<usize>| {
+        for n in &mut p.nodes {
+            n.at.1 += rise * n.at.0 / span;
+        }
+        if let Some(links) = lumped {
+            let joint = w / g * length / links as f64;
+            for m in &mut p.members {
+                m.mass_per_length = 0.0;
+            }
+            for (k, n) in p.nodes.iter_mut().enumerate() {
+                n.mass = if k == 0 || k == links { 0.5 } else { 1.0 } * joint;
+            }
+        }
+        let eq = solve(&model(&p));
+        assert!(eq.stability.is_stable(), "{:?}", eq.stability);
+        let r = eq.nodes[0].reaction.unwrap();
+        (r.x, r.y)
+    };
+    let exact = incline(hanging_chain(1, span, length, ea, w, g, 0.0), None);
+    let low = |links: usize| incline(hanging_chain(links, span, length, ea, w, g, 20.0), Some(links));
+    let (c20, c40, c80) = (low(20), low(40), low(80));
+    for (k, (a, b, c, e)) in [(c20.0, c40.0, c80.0, exact.0), (c20.1, c40.1, c80.1, exact.1)]
+        .into_iter()
+        .enumerate()
+    {
+        let ratio = (b - a) / (c - b);
+        assert!((3.5..4.5).contains(&ratio), "component {k}: ratio {ratio} ({a}, {b}, {c})");
+        let richardson = c + (c - b) / 3.0;
+        assert!(rel(richardson, e) < 1e-6, "component {k}: chains → {richardson} vs member {e} N");
+    }
+    // The lowest point lies between the ends: the cable leaves the lower anchor downwards, so
+    // the anchor holds it up.
+    assert!(exact.1 > 0.0, "lower anchor's reaction {exact:?} N");
+}
