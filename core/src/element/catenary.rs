@@ -58,10 +58,11 @@ impl Catenary {
         let Catenary { ea, l0, q } = *self;
         let vb = v + q * l0;
         let (ta, tb) = (hyp(h, v), hyp(h, vb));
-        let asinh_diff = asinh_difference(vb, v, h);
+        let asinh_diff = asinh_difference(vb, v, h, q * l0);
         let lx = h * l0 / ea + h / q * asinh_diff;
         // (T_b − T_a)/q without cancellation: (V_b² − V²)/(q (T_a + T_b)) = L0 (V + V_b)/(T_a + T_b).
-        let lz = (vb * vb - v * v) / (2.0 * q * ea) + l0 * (v + vb) / (ta + tb);
+        // (V_b² − V²)/(2 q EA) = L0 (V + V_b)/(2 EA), without cancellation.
+        let lz = l0 * (v + vb) / (2.0 * ea) + l0 * (v + vb) / (ta + tb);
         let dx_dh = l0 / ea + asinh_diff / q + (v / ta - vb / tb) / q;
         let dx_dv = h / q * (1.0 / tb - 1.0 / ta);
         let dz_dv = l0 / ea + (vb / tb - v / ta) / q;
@@ -170,9 +171,9 @@ impl Catenary {
         let Catenary { ea, q, .. } = *self;
         let (h, v) = (hang.h, hang.v);
         let vs = v + q * s;
-        let x = h * s / ea + h / q * asinh_difference(vs, v, h);
+        let x = h * s / ea + h / q * asinh_difference(vs, v, h, q * s);
         let (ta, ts) = (hyp(h, v), hyp(h, vs));
-        let z = (vs * vs - v * v) / (2.0 * q * ea) + if ta + ts > 0.0 { s * (v + vs) / (ta + ts) } else { 0.0 };
+        let z = s * (v + vs) / (2.0 * ea) + if ta + ts > 0.0 { s * (v + vs) / (ta + ts) } else { 0.0 };
         (x, z)
     }
 
@@ -244,7 +245,7 @@ impl Catenary {
         let (h, v) = (hang.h, hang.v);
         let vb = v + q * l0;
         let (ta, tb) = (hyp(h, v), hyp(h, vb));
-        let asinh_diff = asinh_difference(vb, v, h);
+        let asinh_diff = asinh_difference(vb, v, h, q * l0);
         let dx = -h / (q * q) * asinh_diff + h / q * l0 / tb;
         let dz = -(vb * vb - v * v) / (2.0 * q * q * ea) + vb * l0 / (q * ea) - (tb - ta) / (q * q) + vb * l0 / (q * tb);
         match hang.flexibility.try_inverse() {
@@ -370,14 +371,15 @@ impl AsinhFast for f64 {
 }
 
 /// `asinh(a/h) − asinh(b/h)` for `h > 0`, without the cancellation of two large values of the
-/// same sign.
-fn asinh_difference(a: f64, b: f64, h: f64) -> f64 {
+/// same sign; `diff = a − b` as the caller knows it exactly (the weight `q s` of the stretch
+/// between the two points), not as the difference of two nearly equal numbers.
+fn asinh_difference(a: f64, b: f64, h: f64, diff: f64) -> f64 {
     if a.signum() == b.signum() && a != 0.0 {
         // asinh(x) − asinh(y) = asinh(x √(1+y²) − y √(1+x²)), exact for the same sign.
         let (x, y) = (a / h, b / h);
         let (sx, sy) = (hyp(x, 1.0), hyp(y, 1.0));
         // x sy − y sx = (x² sy² − y² sx²)/(x sy + y sx) = (x² − y²)/(x sy + y sx).
-        let d = (x - y) * (x + y) / (x * sy + y * sx);
+        let d = (diff / h) * (x + y) / (x * sy + y * sx);
         d.asinh_fast()
     } else {
         (a / h).asinh_fast() - (b / h).asinh_fast()
