@@ -104,6 +104,8 @@ pub fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
             ui.checkbox(&mut app.settings.drawn_geometry, "Drawn geometry (faint)");
             ui.checkbox(&mut app.settings.force_labels, "Force labels");
             ui.checkbox(&mut app.settings.node_ids, "Node ids");
+            ui.checkbox(&mut app.settings.sag_dimensions, "Sag dimensions")
+                .on_hover_text("Dimension the largest distance of each sagging cable from its chord");
             ui.checkbox(&mut app.settings.reactions, "Reaction arrows");
             ui.checkbox(&mut app.settings.snap, "Snap to grid");
         });

@@ -31,6 +31,8 @@ pub struct Settings {
     pub drawn_geometry: bool,
     /// Node ids written beside the nodes.
     pub node_ids: bool,
+    /// The sag of each cable that sags under its own weight dimensioned on the Rig view.
+    pub sag_dimensions: bool,
 }
 
 impl Default for Settings {
@@ -45,6 +47,7 @@ impl Default for Settings {
             reactions: true,
             drawn_geometry: true,
             node_ids: false,
+            sag_dimensions: false,
         }
     }
 }

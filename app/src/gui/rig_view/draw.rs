@@ -76,6 +76,19 @@ pub(super) fn draw_answer(app: &RigApp, a: &Answer<'_>, painter: &egui::Painter,
             }
             _ => hollow_or_solid(painter, vec![sa, sb], colour, compression, 3.2),
         }
+        if app.settings.sag_dimensions
+            && let Some(sag) = &r.sag
+        {
+            sag_dimension(
+                view,
+                painter,
+                sag,
+                eq.nodes[m.ends[0]].position,
+                eq.nodes[m.ends[1]].position,
+                units,
+                &mut texts,
+            );
+        }
         if labels && !r.slack && sa.distance(sb) > 56.0 {
             let (mut mid, mut n) = (sa + (sb - sa) * 0.5, (sb - sa).normalized().rot90());
             if let Some(sag) = &r.sag
@@ -308,4 +321,48 @@ pub(super) fn draw_member_start(app: &RigApp, painter: &egui::Painter) {
     if let Some(h) = painter.ctx().pointer_hover_pos() {
         painter.extend(Shape::dashed_line(&[s, h], Stroke::new(1.2, pal::SELECT), 5.0, 4.0));
     }
+}
+
+/// The sag of a cable dimensioned: a thin line from its chord, square to it, to the point of
+/// the curve farthest from it, with the distance written beside it.
+fn sag_dimension(
+    view: &super::camera::RigView,
+    painter: &egui::Painter,
+    sag: &rigwright_core::solve::SagResult,
+    a: Vec3,
+    b: Vec3,
+    units: Units,
+    texts: &mut Vec<(Pos2, String, Color32)>,
+) {
+    let chord = b - a;
+    let len2 = chord.norm_squared();
+    if len2 <= 0.0 || sag.curve.is_empty() {
+        return;
+    }
+    // The curve's point farthest from the chord line, and its foot on the chord.
+    let foot_of = |p: &Vec3| a + chord * ((p - a).dot(&chord) / len2);
+    let Some(far) = sag
+        .curve
+        .iter()
+        .max_by(|p, q| (*p - foot_of(p)).norm().total_cmp(&(*q - foot_of(q)).norm()))
+    else {
+        return;
+    };
+    let (p, q) = (view.to_screen(*far), view.to_screen(foot_of(far)));
+    if p.distance(q) < 4.0 {
+        return;
+    }
+    let stroke = Stroke::new(1.0, pal::MUTED);
+    // The chord the sag is measured from, dashed.
+    painter.extend(Shape::dashed_line(&[view.to_screen(a), view.to_screen(b)], stroke, 5.0, 4.0));
+    painter.line_segment([p, q], stroke);
+    for end in [p, q] {
+        let n = (p - q).normalized().rot90() * 4.0;
+        painter.line_segment([end - n, end + n], stroke);
+    }
+    texts.push((
+        p + (p - q).normalized() * 22.0,
+        format!("sag {}", units.show(Quantity::Length, sag.sag)),
+        pal::MUTED,
+    ));
 }
