@@ -48,6 +48,10 @@ pub struct SolveOutcome {
     pub elapsed: Duration,
 }
 
+/// The structure of the last solver (pattern and symbolic analysis), for the next solve of
+/// a rig that differs only in positions, loads or member properties.
+static STRUCTURE: std::sync::Mutex<Option<rigwright_core::solve::system::System>> = std::sync::Mutex::new(None);
+
 /// Runs one request on the calling thread.
 pub fn solve_now(req: &SolveRequest) -> SolveOutcome {
     solve_cancellable(req, None)
@@ -59,15 +63,22 @@ fn solve_cancellable(req: &SolveRequest, cancel: Option<&Arc<AtomicBool>>) -> So
 
     let model = &*req.model;
     let warm = req.warm.as_ref().filter(|w| w.positions.len() == model.nodes.len());
+    let held = req.hold.map(|(node, _)| node);
+    // A drag changes positions, not the structure: reuse the last solver's pattern and
+    // symbolic analysis when they fit.
+    let cached = STRUCTURE.lock().ok().and_then(|mut c| c.take());
+    let statics = match cached.map(|s| Statics::with_system(model, held, s)) {
+        Some(Ok(s)) => s,
+        _ => match held {
+            Some(node) => Statics::holding(model, node),
+            None => Statics::new(model),
+        },
+    };
+    let mut statics = cancellable(statics, cancel);
+    statics.settings.follow = req.follow;
     let (result, stiffness) = match req.hold {
-        Some((node, at)) => {
-            let mut statics = cancellable(Statics::holding(model, node), cancel);
-            statics.settings.follow = req.follow;
-            (statics.solve_held(req.case, at, warm), None)
-        }
+        Some((_, at)) => (statics.solve_held(req.case, at, warm), None),
         None => {
-            let mut statics = cancellable(Statics::new(model), cancel);
-            statics.settings.follow = req.follow;
             let result = statics.solve(req.case, warm);
             let stiffness = match (&result, req.stiffness_at) {
                 (Ok(eq), Some(n)) if eq.stability.is_stable() => Some(statics.node_stiffness(eq, n).map_err(|e| e.to_string())),
@@ -76,6 +87,9 @@ fn solve_cancellable(req: &SolveRequest, cancel: Option<&Arc<AtomicBool>>) -> So
             (result, stiffness)
         }
     };
+    if let Ok(mut c) = STRUCTURE.lock() {
+        *c = Some(statics.into_system());
+    }
     SolveOutcome {
         generation: req.generation,
         model: req.model.clone(),

@@ -308,7 +308,7 @@ impl Statics<'_> {
     /// is positive (above round-off of its terms) at each. Convex along the line, the
     /// line-constrained minimum moves continuously from one end to the other as the load
     /// grows: the step cannot have snapped along its own direction.
-    fn convex_along(&self, (a, la): (&[Vec3], f64), (b, lb): (&[Vec3], f64), load: &Loading, samples: usize) -> bool {
+    pub(super) fn convex_along(&self, (a, la): (&[Vec3], f64), (b, lb): (&[Vec3], f64), load: &Loading, samples: usize) -> bool {
         let model = self.model;
         let d: Vec<Vec3> = a.iter().zip(b).map(|(x, y)| y - x).collect();
         // Each sagging cable's solve starts from its state at the previous sample.
@@ -371,7 +371,7 @@ impl Statics<'_> {
     /// True when the tangent is positive definite at the given fractions of the straight
     /// segment between displacements `a` and `b` (always true for a step too small to move
     /// any node by a millionth of the rig's size).
-    fn stable_along(&self, (a, la): (&[Vec3], f64), (b, lb): (&[Vec3], f64), load: &Loading, fractions: &[f64]) -> bool {
+    pub(super) fn stable_along(&self, (a, la): (&[Vec3], f64), (b, lb): (&[Vec3], f64), load: &Loading, fractions: &[f64]) -> bool {
         let step = a.iter().zip(b).map(|(x, y)| (y - x).norm()).fold(0.0, f64::max);
         if step <= 1e-6 * self.model.extent() {
             return true;

@@ -183,6 +183,30 @@ impl<'m> Statics<'m> {
         s
     }
 
+    /// A solver for `model` that reuses `system`, the structure (pattern, symbolic analysis)
+    /// of a previous solver, when it fits `model` with node `held` held: the same free
+    /// directions and the same member ends (moving nodes, changing loads, rates or lengths
+    /// keep it). `Err` gives the structure back when it does not fit.
+    pub fn with_system(model: &'m Model, held: Option<usize>, system: System) -> Result<Self, System> {
+        if !system.fits(model, held) {
+            return Err(system);
+        }
+        let rate_scale = model.members.iter().map(|m| m.kind.rate()).fold(1e-300, f64::max);
+        Ok(Statics {
+            model,
+            system,
+            held,
+            rate_scale,
+            settings: SolveSettings::default(),
+            cancel: None,
+        })
+    }
+
+    /// The solver's structure, for [`Statics::with_system`] on the next variant of the rig.
+    pub fn into_system(self) -> System {
+        self.system
+    }
+
     fn build(model: &'m Model, held: Option<usize>) -> Self {
         let system = System::new(model, DofMap::new(model, held));
         let rate_scale = model.members.iter().map(|m| m.kind.rate()).fold(1e-300, f64::max);
@@ -302,8 +326,18 @@ impl<'m> Statics<'m> {
             for (n, a, _) in self.system.dofs.free() {
                 u[n][a] = w[n][a] - model.nodes[n].position[a];
             }
+            let from = u.clone();
             match self.newton(&mut u, &load, 1.0, Mode::Local { strict: true }, 12, &mut iterations) {
-                Ok(c) if c.clean && c.definiteness == Definiteness::Positive => {
+                // Newton went straight down to a stable state (full steps, the residual
+                // falling), or its result passes the load path's test against a jump to
+                // another branch: the potential convex along the straight way from the start
+                // and the rig stable half-way.
+                Ok(c)
+                    if c.definiteness == Definiteness::Positive
+                        && (c.clean
+                            || (self.convex_along((&from, 1.0), (&u, 1.0), &load, 32)
+                                && self.stable_along((&from, 1.0), (&u, 1.0), &load, &[0.5]))) =>
+                {
                     let work = Work {
                         iterations,
                         steps: 1,

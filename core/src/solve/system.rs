@@ -33,8 +33,11 @@ pub enum Part {
 }
 
 /// Sparse pattern of the upper triangle, with scatter maps and the symbolic factorisation.
+#[derive(Clone)]
 pub struct System {
     pub dofs: DofMap,
+    /// End nodes of every member, for [`System::fits`].
+    ends: Vec<[usize; 2]>,
     col_ptr: Vec<usize>,
     row_idx: Vec<usize>,
     /// Per member: (local row 0..6, local col 0..6, value slot) for entries with row ≤ col.
@@ -173,12 +176,21 @@ impl System {
         let analysis = Analysis::new(n, &col_ptr, &row_idx);
         System {
             dofs,
+            ends: model.members.iter().map(|m| m.ends).collect(),
             col_ptr,
             row_idx,
             scatter,
             diag,
             analysis,
         }
+    }
+
+    /// True when this structure is the one [`System::new`] would build for `model` with
+    /// node `held` held: the same free directions and the same member ends.
+    pub fn fits(&self, model: &Model, held: Option<usize>) -> bool {
+        self.ends.len() == model.members.len()
+            && self.ends.iter().zip(&model.members).all(|(e, m)| *e == m.ends)
+            && self.dofs == DofMap::new(model, held)
     }
 
     /// Number of free DOFs.
