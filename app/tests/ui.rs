@@ -757,3 +757,32 @@ fn a_limit_point_is_shown_as_such_and_followed_only_when_asked() {
     assert!(h.state().route_note().unwrap().contains("another branch"));
     std::fs::remove_file(path).ok();
 }
+
+/// The Modes tab lets the user set how many links the sagging cables are cut into; the modes
+/// are computed again with them (the sign sample's two ropes have mass).
+#[test]
+fn the_modes_tab_sets_the_cable_links() {
+    let mut h = harness();
+    show_tab(&mut h, ReadoutTab::Modes);
+    h.run();
+    let auto = h
+        .state()
+        .modes
+        .as_ref()
+        .and_then(|m| m.result.as_ref().ok())
+        .map(|m| m.cables.clone())
+        .expect("modes");
+    assert!(!auto.is_empty(), "the sample's ropes are cut into links");
+    h.get_by_label("Cable links chosen from the frequencies").click();
+    h.run();
+    let links = h.state().settings.cable_links.expect("links set by hand");
+    assert_eq!(links, auto[0].links, "starts from the links in use");
+    let now = h
+        .state()
+        .modes
+        .as_ref()
+        .and_then(|m| m.result.as_ref().ok())
+        .map(|m| m.cables.clone())
+        .expect("modes again");
+    assert!(now.iter().all(|c| c.links == links), "{now:?}");
+}

@@ -1,8 +1,8 @@
 //! Natural modes about the current equilibrium, computed when the Modes tab asks: at once on
 //! a small rig, on another thread on a large one; and the mode being animated.
 
-use rigwright_core::Statics;
-use rigwright_core::dynamics::{Modes, modes, modes_watched};
+use rigwright_core::dynamics::{CableLinks, Modes, modes_with};
+use rigwright_core::{Statics, Watch};
 
 use super::RigApp;
 use super::background::{BACKGROUND_DOF, Background, free_dofs, model_key};
@@ -48,8 +48,9 @@ pub fn refresh_modes(app: &mut RigApp) {
         }
         return;
     }
+    let links = app.settings.cable_links.map_or(CableLinks::Auto, CableLinks::Each);
     if free_dofs(a.model) <= BACKGROUND_DOF {
-        let result = modes(&Statics::new(a.model), a.eq, 12).map_err(|e| e.to_string());
+        let result = modes_with(&Statics::new(a.model), a.eq, 12, links, &Watch::new()).map_err(|e| e.to_string());
         app.modes = Some(done(result));
         return;
     }
@@ -59,6 +60,6 @@ pub fn refresh_modes(app: &mut RigApp) {
     app.modes = None;
     app.modes_job = Some(Background::spawn(key, move |watch| {
         let statics = Statics::new(&model);
-        modes_watched(&statics, &eq, 12, &watch).map_err(|e| e.to_string())
+        modes_with(&statics, &eq, 12, links, &watch).map_err(|e| e.to_string())
     }));
 }

@@ -33,6 +33,9 @@ pub struct Settings {
     pub node_ids: bool,
     /// The sag of each cable that sags under its own weight dimensioned on the Rig view.
     pub sag_dimensions: bool,
+    /// Links each sagging cable is cut into for the modes (`None`: chosen from the frequency
+    /// range).
+    pub cable_links: Option<usize>,
 }
 
 impl Default for Settings {
@@ -48,6 +51,7 @@ impl Default for Settings {
             drawn_geometry: true,
             node_ids: false,
             sag_dimensions: false,
+            cable_links: None,
         }
     }
 }

@@ -13,6 +13,7 @@ use crate::gui::palette as pal;
 pub(super) fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
     refresh_modes(app);
     let units: Units = app.settings.units;
+    let sagging = app.answer().is_some_and(|a| a.model.members.iter().any(|m| m.sags()));
     if let Some(job) = &app.modes_job {
         let key = job.key;
         let text = format!(
@@ -59,6 +60,22 @@ pub(super) fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
     let mass_unit = units.symbol(Quantity::Mass);
     let mut choice = state.animate;
     let cables = !list.cables.is_empty();
+    let mut links = app.settings.cable_links;
+    if sagging {
+        ui.horizontal(|ui| {
+            let mut auto = links.is_none();
+            if ui
+                .checkbox(&mut auto, "Cable links chosen from the frequencies")
+                .on_hover_text("Each sagging cable is cut into links so that its own mass vibrates; untick to set how many (1 lumps its mass at its ends)")
+                .changed()
+            {
+                links = if auto { None } else { Some(list.cables.first().map_or(16, |c| c.links)) };
+            }
+            if let Some(n) = links.as_mut() {
+                ui.add(egui::DragValue::new(n).range(1..=rigwright_core::dynamics::subdivide::MAX_LINKS).suffix(" links per cable"));
+            }
+        });
+    }
     if cables {
         let links: usize = list.cables.iter().map(|c| c.links).sum();
         ui.label(format!(
@@ -109,5 +126,11 @@ pub(super) fn ui(app: &mut RigApp, ui: &mut egui::Ui) {
     if choice != state.animate {
         state.animate = choice;
         state.clock = 0.0;
+    }
+    if links != app.settings.cable_links {
+        // Computed again with the new links.
+        app.settings.cable_links = links;
+        app.modes = None;
+        app.modes_job = None;
     }
 }
