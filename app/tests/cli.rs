@@ -793,3 +793,22 @@ fn a_long_weightless_cable_is_asked_for_its_mass_per_length() {
         assert_eq!(text.contains("Cable `span` has no mass per length"), warned, "{text}");
     }
 }
+
+/// `sheet --sag` dimensions each sagging guy of the guyed pole with its sag, as `solve` gives
+/// it (mm to the Sheet's precision); without it the drawing has none.
+#[test]
+fn sheet_dimensions_the_sag_on_request() {
+    let file = sample("guyed-pole.rig.ron");
+    let dir = std::env::temp_dir().join(format!("rigwright-cli-{}-sag", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let (with, without) = (dir.join("with.pdf"), dir.join("without.pdf"));
+    let (code, _, err) = rigwright(&["sheet", file.to_str().unwrap(), "-o", with.to_str().unwrap(), "--sag"]);
+    assert_eq!(code, 0, "{err}");
+    let (code, _, err) = rigwright(&["sheet", file.to_str().unwrap(), "-o", without.to_str().unwrap()]);
+    assert_eq!(code, 0, "{err}");
+    if let (Some(a), Some(b)) = (pdftext(&with), pdftext(&without)) {
+        assert!(a.contains("sag 0.0"), "{a}");
+        assert!(!b.contains("sag 0.0"), "{b}");
+    }
+    let _ = std::fs::remove_dir_all(&dir);
+}

@@ -31,6 +31,8 @@ pub struct SheetOptions {
     pub unsaved: bool,
     /// Parts from catalogue files, found after the built-in ropes and the project's own parts.
     pub extra_parts: Catalogue,
+    /// Dimension the sag of every cable that sags under its own weight on the drawing.
+    pub sag_dimensions: bool,
 }
 
 /// How the drawn case was chosen.
@@ -65,6 +67,8 @@ pub struct Sheet {
     pub sha256: String,
     pub file_name: String,
     pub unsaved: bool,
+    /// The drawing dimensions the sag of the cables that sag.
+    pub sag_dimensions: bool,
 }
 
 /// Lower-case hex SHA-256 of `bytes` (the same as `sha256sum` prints).
@@ -180,6 +184,7 @@ impl Sheet {
             sha256: sha256_hex(bytes),
             file_name: options.file_name.clone().unwrap_or_else(|| "(not saved)".into()),
             unsaved: options.unsaved,
+            sag_dimensions: options.sag_dimensions,
             model,
             report,
         })

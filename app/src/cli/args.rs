@@ -254,6 +254,9 @@ pub enum Command {
         /// Extra catalogue file(s) (*.parts.ron) to find parts in, as for `check`.
         #[arg(long)]
         catalogue: Vec<PathBuf>,
+        /// Dimension the sag of every cable that sags under its own weight on the drawing.
+        #[arg(long)]
+        sag: bool,
         #[command(flatten)]
         info: sheet_cmd::InfoArgs,
     },

@@ -171,6 +171,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
             paper,
             stiffness,
             catalogue,
+            sag,
             info,
         } => sheet_cmd::sheet(
             &file,
@@ -180,6 +181,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
                 case,
                 stiffness,
                 catalogue,
+                sag,
             },
             info,
         ),
@@ -197,6 +199,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
                 case,
                 stiffness,
                 catalogue,
+                sag: false,
             },
             sheet_cmd::Outputs {
                 members: csv_members,

@@ -56,6 +56,7 @@ pub struct Choice {
     pub case: Option<String>,
     pub stiffness: Vec<String>,
     pub catalogue: Vec<PathBuf>,
+    pub sag: bool,
 }
 
 /// Reads the project and builds the sheet's content.
@@ -69,6 +70,7 @@ fn build(file: &Path, choice: Choice, info: SheetInfo) -> Result<Sheet, Failure>
         file_name: file.file_name().map(|n| n.to_string_lossy().into_owned()),
         unsaved: false,
         extra_parts: super::sizing::catalogue_files(&choice.catalogue)?,
+        sag_dimensions: choice.sag,
     };
     Sheet::build(&project, &bytes, &options).map_err(|e| Failure::input(format!("{}: {e}", file.display())))
 }

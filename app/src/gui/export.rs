@@ -65,6 +65,8 @@ pub fn sheet_inputs(app: &RigApp) -> SheetInputs {
         unsaved,
         // The app imports catalogue files into the project's own parts.
         extra_parts: Default::default(),
+        // As the Rig view shows it (View > Sag dimensions).
+        sag_dimensions: app.settings.sag_dimensions,
     };
     SheetInputs {
         project: app.doc.project.clone(),

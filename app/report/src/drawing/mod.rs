@@ -117,6 +117,7 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
         page.line(dp[m.ends[0]], dp[m.ends[1]], Pen::dashed(0.6, Ink::Light, 3.0, 2.0));
     }
     // Deformed geometry, solid: cables thin, struts thick, springs as zigzags, slack dashed.
+    let mut sags: Vec<((f32, f32), String)> = Vec::new();
     let shown = fp.as_ref().unwrap_or(&dp);
     if let (Some(fp), Some(eq)) = (&fp, eq) {
         for (m, r) in model.members.iter().zip(&eq.members) {
@@ -136,6 +137,9 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
                             to_page(uv(&(c + (ua * (1.0 - f) + ub * f) * (mag - 1.0))))
                         })
                         .collect();
+                    if sheet.sag_dimensions && pts.len() >= 2 {
+                        sag_dimension(page, &pts, sag.sag, fmt, &mut sags);
+                    }
                     page.path(pts, false, Some(Pen::solid(0.9, Ink::Black)), None);
                 }
                 MemberKind::Cable { .. } if r.slack => page.line(a, b, Pen::dashed(0.9, Ink::Black, 2.0, 1.6)),
@@ -148,6 +152,12 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
     // Labels already on the drawing: the load labels go first, then node ids and member ids
     // where they overlap none.
     let mut labels = Placed::default();
+    // Sag dimensions first: asked for, so they take their places before the other labels.
+    for (at, text) in &sags {
+        if labels.place(text_box(*at, 5.5, Align::Centre, text)) {
+            page.text(*at, Style::new(5.5, Weight::Regular, Ink::Mid), Align::Centre, text);
+        }
+    }
     // Point loads of the case, arrows ending on the node.
     let case = &model.cases[sheet.case];
     for (node, f) in &case.loads {
@@ -464,4 +474,38 @@ pub fn draw(page: &mut Page, sheet: &Sheet, fmt: &Fmt, area: Area, paper: Paper)
             &l,
         );
     }
+}
+
+/// The sag of a cable dimensioned on the drawing: its chord dashed, a thin line square to it
+/// from the farthest point of the curve, and the sag in the sheet's length unit beside it
+/// (collected in `labels`, written after the members).
+fn sag_dimension(page: &mut Page, pts: &[(f32, f32)], sag_m: f64, fmt: &Fmt, labels: &mut Vec<((f32, f32), String)>) {
+    let (a, b) = (pts[0], pts[pts.len() - 1]);
+    let (dx, dy) = (b.0 - a.0, b.1 - a.1);
+    let len2 = dx * dx + dy * dy;
+    if len2 <= 0.0 {
+        return;
+    }
+    let foot = |p: (f32, f32)| {
+        let t = ((p.0 - a.0) * dx + (p.1 - a.1) * dy) / len2;
+        (a.0 + t * dx, a.1 + t * dy)
+    };
+    let dist = |p: (f32, f32)| {
+        let f = foot(p);
+        ((p.0 - f.0).powi(2) + (p.1 - f.1).powi(2)).sqrt()
+    };
+    let far = pts.iter().copied().fold(a, |m, p| if dist(p) > dist(m) { p } else { m });
+    let f = foot(far);
+    // Square to the chord, on the side the cable sags to (downwards on the page when the sag
+    // is too small to draw).
+    let len = len2.sqrt();
+    let (mut ux, mut uy) = (-dy / len, dx / len);
+    if dist(far) >= 2.0 {
+        page.line(a, b, Pen::dashed(0.4, Ink::Mid, 2.0, 1.5));
+        page.line(far, f, Pen::solid(0.4, Ink::Mid));
+        (ux, uy) = ((far.0 - f.0) / dist(far), (far.1 - f.1) / dist(far));
+    } else if uy < 0.0 {
+        (ux, uy) = (-ux, -uy);
+    }
+    labels.push(((far.0 + ux * 9.0, far.1 + uy * 9.0), format!("sag {}", fmt.length_u(sag_m))));
 }
