@@ -37,7 +37,7 @@ fn main() {
         // The same step with the previous step's structure.
         let t = Instant::now();
         let reused = match system.take() {
-            Some(s) => Statics::with_system(&m, None, s).unwrap_or_else(|_| Statics::new(&m)),
+            Some(s) => Statics::with_system(&m, None, s),
             None => Statics::new(&m),
         };
         reuse_build += t.elapsed().as_secs_f64();

@@ -67,12 +67,10 @@ fn solve_cancellable(req: &SolveRequest, cancel: Option<&Arc<AtomicBool>>) -> So
     // A drag changes positions, not the structure: reuse the last solver's pattern and
     // symbolic analysis when they fit.
     let cached = STRUCTURE.lock().ok().and_then(|mut c| c.take());
-    let statics = match cached.map(|s| Statics::with_system(model, held, s)) {
-        Some(Ok(s)) => s,
-        _ => match held {
-            Some(node) => Statics::holding(model, node),
-            None => Statics::new(model),
-        },
+    let statics = match (cached, held) {
+        (Some(s), _) => Statics::with_system(model, held, s),
+        (None, Some(node)) => Statics::holding(model, node),
+        (None, None) => Statics::new(model),
     };
     let mut statics = cancellable(statics, cancel);
     statics.settings.follow = req.follow;

@@ -183,23 +183,23 @@ impl<'m> Statics<'m> {
         s
     }
 
-    /// A solver for `model` that reuses `system`, the structure (pattern, symbolic analysis)
-    /// of a previous solver, when it fits `model` with node `held` held: the same free
+    /// A solver for `model` with node `held` held (if any) that reuses `system`, the
+    /// structure (pattern, symbolic analysis) of a previous solver, when it fits: the same free
     /// directions and the same member ends (moving nodes, changing loads, rates or lengths
-    /// keep it). `Err` gives the structure back when it does not fit.
-    pub fn with_system(model: &'m Model, held: Option<usize>, system: System) -> Result<Self, System> {
+    /// keep it). Otherwise it builds its own, as [`Statics::new`] or [`Statics::holding`].
+    pub fn with_system(model: &'m Model, held: Option<usize>, system: System) -> Self {
         if !system.fits(model, held) {
-            return Err(system);
+            return Self::build(model, held);
         }
         let rate_scale = model.members.iter().map(|m| m.kind.rate()).fold(1e-300, f64::max);
-        Ok(Statics {
+        Statics {
             model,
             system,
             held,
             rate_scale,
             settings: SolveSettings::default(),
             cancel: None,
-        })
+        }
     }
 
     /// The solver's structure, for [`Statics::with_system`] on the next variant of the rig.
