@@ -495,3 +495,35 @@ fn an_inclined_deep_span_of_lumped_links_converges_to_the_catenary_member() {
     // the anchor holds it up.
     assert!(exact.1 > 0.0, "lower anchor's reaction {exact:?} N");
 }
+
+/// Nearly taut, nearly weightless: a cable whose weight is 1e-8 of its tension is a
+/// catenary (above the floor below which weight is ignored), and its end forces are those of
+/// the straight elastic cable with half its weight at each end, to within the weight's own
+/// second-order effect — the closed form does not lose accuracy as the sag vanishes (common
+/// practice: the limit of the exact solution).
+#[test]
+fn a_nearly_weightless_catenary_is_the_straight_cable() {
+    let gravity = Vec3::new(0.0, 0.0, -9.81);
+    let up = Vec3::z();
+    for (ea, strain) in [(1e5, 1e-2), (1e7, 1e-3), (1e9, 1e-3)] {
+        for dir in [Vec3::new(1.0, 0.0, 0.0), Vec3::new(0.6, 0.0, 0.8), Vec3::new(0.3, -0.5, -0.81)] {
+            let chord = dir.normalize() * 20.0;
+            let l0 = chord.norm() / (1.0 + strain);
+            let t = ea * strain;
+            let mpl = 1e-8 * t / (9.81 * l0);
+            let w = mpl * 9.81 * l0;
+            let kind = MemberKind::Cable { ea, l0 };
+            let cat = respond(&kind, mpl, &chord, &gravity, &Vec3::zeros()).unwrap();
+            assert!(cat.sag.is_some(), "above the weight floor it is a catenary");
+            let straight = respond(&kind, 0.0, &chord, &gravity, &Vec3::zeros()).unwrap();
+            // Each end carries half the weight (internal forces: end_a + end_b = w up).
+            for (c, s) in [(cat.end_a, straight.end_a), (cat.end_b, straight.end_b)] {
+                let expected = s + up * (0.5 * w);
+                assert!(
+                    (c - expected).norm() <= 1e-6 * w + 1e-13 * t,
+                    "EA {ea}, chord {chord}: {c} vs straight {expected} (weight {w} N)"
+                );
+            }
+        }
+    }
+}
