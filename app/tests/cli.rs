@@ -812,3 +812,41 @@ fn sheet_dimensions_the_sag_on_request() {
     }
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+/// An output that is the project being read is refused (exit 2, the file unchanged), as is
+/// replacing another project file by a PDF or CSV unless `--force` is given (issue 21).
+#[test]
+fn outputs_never_replace_the_project_read_or_another_project() {
+    let dir = std::env::temp_dir().join(format!("rigwright-cli-{}-same", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let project = dir.join("sign.rig.ron");
+    std::fs::copy(sample("sign-on-two-cables.rig.ron"), &project).unwrap();
+    let other = dir.join("other.rig.ron");
+    std::fs::copy(sample("guyed-pole.rig.ron"), &other).unwrap();
+    let before = std::fs::read(&project).unwrap();
+    let p = project.to_str().unwrap();
+    for args in [
+        vec!["sheet", p, "-o", p],
+        vec!["export", p, "--json", p],
+        vec!["autosize", p, "-o", p],
+        vec!["sheet", p, "-o", other.to_str().unwrap()],
+        vec!["export", p, "--csv-members", other.to_str().unwrap()],
+    ] {
+        let (code, _, err) = rigwright(&args);
+        assert_eq!(code, 2, "{args:?}: {err}");
+        assert!(err.contains("choose another") || err.contains("another file"), "{args:?}: {err}");
+    }
+    assert_eq!(std::fs::read(&project).unwrap(), before, "the project read is unchanged");
+    assert!(
+        std::fs::read_to_string(&other).unwrap().contains("three guys"),
+        "the other project is unchanged"
+    );
+    // With --force the other project file may be replaced; the one read never.
+    let (code, _, err) = rigwright(&["sheet", p, "-o", other.to_str().unwrap(), "--force"]);
+    assert_eq!(code, 0, "{err}");
+    assert!(std::fs::read(&other).unwrap().starts_with(b"%PDF"));
+    let (code, _, _) = rigwright(&["sheet", p, "-o", p, "--force"]);
+    assert_eq!(code, 2);
+    assert_eq!(std::fs::read(&project).unwrap(), before);
+    let _ = std::fs::remove_dir_all(&dir);
+}

@@ -257,6 +257,9 @@ pub enum Command {
         /// Dimension the sag of every cable that sags under its own weight on the drawing.
         #[arg(long)]
         sag: bool,
+        /// Replace an existing project file (*.rig.ron) named as the output all the same.
+        #[arg(long)]
+        force: bool,
         #[command(flatten)]
         info: sheet_cmd::InfoArgs,
     },
@@ -283,5 +286,8 @@ pub enum Command {
         /// Extra catalogue file(s) (*.parts.ron) to find parts in, as for `check`.
         #[arg(long)]
         catalogue: Vec<PathBuf>,
+        /// Replace an existing project file (*.rig.ron) named as an output all the same.
+        #[arg(long)]
+        force: bool,
     },
 }

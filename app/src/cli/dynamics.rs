@@ -224,7 +224,7 @@ pub fn pluck_command(model: &Model, a: &PluckArgs) -> Result<String, Failure> {
         _ => None,
     };
     if let Some(path) = a.csv {
-        std::fs::write(path, csv(model, &rec)).map_err(|e| bad(format!("{}: {e}", path.display())))?;
+        rigwright_core::model::write_atomic(path, csv(model, &rec).as_bytes()).map_err(|e| bad(e.to_string()))?;
     }
     let peaks: Vec<(f64, f64)> = rec
         .member_force

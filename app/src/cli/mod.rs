@@ -172,6 +172,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
             stiffness,
             catalogue,
             sag,
+            force,
             info,
         } => sheet_cmd::sheet(
             &file,
@@ -182,6 +183,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
                 stiffness,
                 catalogue,
                 sag,
+                force,
             },
             info,
         ),
@@ -193,6 +195,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
             json,
             stiffness,
             catalogue,
+            force,
         } => sheet_cmd::export(
             &file,
             sheet_cmd::Choice {
@@ -200,6 +203,7 @@ pub fn run(command: Command) -> Result<(), Failure> {
                 stiffness,
                 catalogue,
                 sag: false,
+                force,
             },
             sheet_cmd::Outputs {
                 members: csv_members,

@@ -57,6 +57,8 @@ pub struct Choice {
     pub stiffness: Vec<String>,
     pub catalogue: Vec<PathBuf>,
     pub sag: bool,
+    /// Replace an existing project file by the output all the same.
+    pub force: bool,
 }
 
 /// Reads the project and builds the sheet's content.
@@ -75,8 +77,27 @@ fn build(file: &Path, choice: Choice, info: SheetInfo) -> Result<Sheet, Failure>
     Sheet::build(&project, &bytes, &options).map_err(|e| Failure::input(format!("{}: {e}", file.display())))
 }
 
+/// Writes an output file whole or not at all; never over the project it was made from.
 fn write(path: &Path, bytes: &[u8]) -> Result<(), Failure> {
-    std::fs::write(path, bytes).map_err(|e| Failure::input(format!("could not write {}: {e}", path.display())))
+    rigwright_core::model::write_atomic(path, bytes).map_err(|e| Failure::input(e.to_string()))
+}
+
+/// Refuses an output path that is the input project, or any project file (by its ending).
+pub fn check_output(input: &Path, output: &Path, force: bool) -> Result<(), Failure> {
+    if rigwright_core::model::same_file(input, output) {
+        return Err(Failure::input(format!(
+            "{}: this is the project being read; choose another output file name",
+            output.display()
+        )));
+    }
+    let name = output.file_name().map(|n| n.to_string_lossy().to_lowercase()).unwrap_or_default();
+    if !force && name.ends_with(rigwright_core::FILE_EXTENSION) && output.exists() {
+        return Err(Failure::input(format!(
+            "{}: this is a project file and would be replaced by a non-project file; choose another name, or add --force",
+            output.display()
+        )));
+    }
+    Ok(())
 }
 
 /// Exit 3 when a load case has no equilibrium (the files are written all the same and say so).
@@ -100,6 +121,7 @@ fn unsolved(sheet: &Sheet, what: &str) -> Result<(), Failure> {
 /// `rigwright sheet`.
 pub fn sheet(file: &Path, output: &Path, paper: &str, choice: Choice, info: InfoArgs) -> Result<(), Failure> {
     let paper = Paper::parse(paper).ok_or_else(|| Failure::input(format!("paper `{paper}`: use a4 or letter")))?;
+    check_output(file, output, choice.force)?;
     let sheet = build(file, choice, info.into_info())?;
     let laid = sheet.pages(paper);
     let pdf = sheet.pdf_of(&laid, paper).map_err(Failure::input)?;
@@ -122,6 +144,11 @@ pub fn export(file: &Path, choice: Choice, out: Outputs) -> Result<(), Failure> 
         return Err(Failure::input(
             "nothing to export: give --csv-members FILE, --csv-nodes FILE or --json FILE (or --json - to print)",
         ));
+    }
+    for path in [&out.members, &out.nodes, &out.json].into_iter().flatten() {
+        if path.as_os_str() != "-" {
+            check_output(file, path, choice.force)?;
+        }
     }
     let sheet = build(file, choice, SheetInfo::default())?;
     if let Some(path) = &out.members {

@@ -192,9 +192,16 @@ pub fn autosize_command(
     }
     let a: AutoSize = auto_size(&project, &cat, members, 20).map_err(|e| Failure::input(e.to_string()))?;
     if let Some(out) = out {
-        std::fs::write(out, a.project.to_ron()).map_err(|e| Failure {
+        // The sized project is a new file: the one read stays as it was.
+        if rigwright_core::model::same_file(path, out) {
+            return Err(Failure::input(format!(
+                "{}: this is the project being sized; write the sized project to another file",
+                out.display()
+            )));
+        }
+        rigwright_core::model::write_atomic(out, a.project.to_ron().as_bytes()).map_err(|e| Failure {
             code: EXIT_BAD_INPUT,
-            message: format!("{}: {e}; choose a folder you can write to", out.display()),
+            message: e.to_string(),
         })?;
     }
     let ok = a.converged && a.failures.is_empty();

@@ -133,7 +133,7 @@ fn render(inputs: &SheetInputs, kind: ExportKind, path: &Path, watch: &Watch) ->
 }
 
 fn put(p: &Path, bytes: &[u8]) -> Result<(), String> {
-    std::fs::write(p, bytes).map_err(|e| format!("could not write {}: {e}", p.display()))
+    rigwright_core::model::write_atomic(p, bytes).map_err(|e| e.to_string())
 }
 
 /// Writes rendered files in order; the message when all are written (an error when it is a

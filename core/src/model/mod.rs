@@ -14,7 +14,7 @@ mod validated;
 
 pub use error::{Problem, ProjectError};
 pub use project::{CaseDoc, FILE_EXTENSION, FORMAT_VERSION, LoadDoc, MemberDoc, MemberDocKind, NodeDoc, Project, Rest, UnitSystem};
-pub use save::{BACKUP_SUFFIX, backup_path, save_atomic};
+pub use save::{BACKUP_SUFFIX, backup_path, same_file, save_atomic, write_atomic};
 pub use title_block::SheetInfo;
 pub use validated::{LoadCase, Member, Model, Node, Support};
 

@@ -41,6 +41,25 @@ pub fn backup_path(path: &Path) -> PathBuf {
 /// On failure the file at `path` is unchanged and the temporary file is removed; the error
 /// names the path and suggests what to check.
 pub fn save_atomic(path: &Path, text: &str) -> Result<(), ProjectError> {
+    replace_atomic(path, text.as_bytes(), true)
+}
+
+/// Writes `bytes` to `path` as [`save_atomic`] does, without keeping a backup: for the files
+/// the commands and the app produce (the Sheet, CSV, JSON), which are never seen half
+/// written either. On failure the file at `path` is unchanged.
+pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<(), ProjectError> {
+    replace_atomic(path, bytes, false)
+}
+
+/// True when `output` names the same file as `input` (after following links), or would.
+pub fn same_file(input: &Path, output: &Path) -> bool {
+    match (fs::canonicalize(input), fs::canonicalize(output)) {
+        (Ok(a), Ok(b)) => a == b,
+        _ => false,
+    }
+}
+
+fn replace_atomic(path: &Path, bytes: &[u8], backup: bool) -> Result<(), ProjectError> {
     let target = resolve_link(path);
     let Some(file_name) = target.file_name().map(|n| n.to_string_lossy().into_owned()) else {
         return Err(io_error(path, "is not a file name", "choose a file name ending in .rig.ron"));
@@ -52,7 +71,7 @@ pub fn save_atomic(path: &Path, text: &str) -> Result<(), ProjectError> {
     let n = SAVE_COUNTER.fetch_add(1, Ordering::Relaxed);
     let tmp = dir.join(format!(".{file_name}.{}-{n}.tmp", std::process::id()));
 
-    let written = write_synced(&tmp, text.as_bytes(), &target);
+    let written = write_synced(&tmp, bytes, &target);
     if let Err(e) = written {
         let _ = fs::remove_file(&tmp);
         return Err(io_error(
@@ -62,7 +81,7 @@ pub fn save_atomic(path: &Path, text: &str) -> Result<(), ProjectError> {
         ));
     }
     // A failed backup does not stop the save: the new file is what the user asked for.
-    if target.exists() {
+    if backup && target.exists() {
         let _ = keep_backup(&target);
     }
     if let Err(e) = fs::rename(&tmp, &target) {
