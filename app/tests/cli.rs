@@ -850,3 +850,22 @@ fn outputs_never_replace_the_project_read_or_another_project() {
     assert_eq!(std::fs::read(&project).unwrap(), before);
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+/// Plucking an anchor is refused with a message that names it (issue 21), as `--stiffness`
+/// refuses one.
+#[test]
+fn pluck_refuses_an_anchor() {
+    let file = sample("sign-on-two-cables.rig.ron");
+    let (code, _, err) = rigwright(&[
+        "pluck",
+        file.to_str().unwrap(),
+        "--node",
+        "wall-left",
+        "--offset",
+        "0.01,0",
+        "--duration",
+        "1",
+    ]);
+    assert_eq!(code, 2, "{err}");
+    assert!(err.contains("`wall-left` is held in every direction"), "{err}");
+}

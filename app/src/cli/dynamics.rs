@@ -155,6 +155,12 @@ pub fn pluck_command(model: &Model, a: &PluckArgs) -> Result<String, Failure> {
     let node = model
         .node_index(a.node)
         .ok_or_else(|| bad(format!("node `{}` does not exist; check the id", a.node)))?;
+    if model.nodes[node].support.is_anchor() {
+        return Err(bad(format!(
+            "node `{}` is held in every direction, so it cannot be pulled; pluck a free node",
+            a.node
+        )));
+    }
     if !(a.duration.is_finite() && a.duration > 0.0) {
         return Err(bad(format!("duration {} s: give a positive time in seconds", a.duration)));
     }
