@@ -23,7 +23,7 @@ use crate::solve::system::Part;
 use crate::solve::{Equilibrium, Statics};
 use crate::watch::Watch;
 
-use super::subdivide::{CableLinks, MAX_LINKS, Subdivision, auto_links, subdivide};
+use super::subdivide::{CableLinks, Subdivision, auto_links, each_links, subdivide};
 
 /// Largest number of massive DOFs solved with the dense eigensolver.
 const DENSE_LIMIT: usize = 600;
@@ -116,11 +116,7 @@ pub fn modes_with(statics: &Statics, eq: &Equilibrium, count: usize, links: Cabl
         return modes_lumped(statics, eq, count, watch);
     }
     let per_member: Vec<usize> = match links {
-        CableLinks::Each(n) => model
-            .members
-            .iter()
-            .map(|m| if m.sags() { n.clamp(1, MAX_LINKS) } else { 1 })
-            .collect(),
+        CableLinks::Each(n) => each_links(model, n),
         CableLinks::Auto => {
             // The frequency range from the modes with the cables' mass at their ends; when
             // those are fewer than asked for (or none: a span between anchors), unknown.

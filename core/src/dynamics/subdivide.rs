@@ -69,6 +69,33 @@ pub fn string_frequency(m: &Member, eq: &Equilibrium, index: usize) -> f64 {
     (mean.max(0.0) / m.mass_per_length).sqrt() / (2.0 * l0)
 }
 
+/// `n` links (within 1 to [`MAX_LINKS`]) for every sagging cable, 1 for every other member.
+pub fn each_links(model: &Model, n: usize) -> Vec<usize> {
+    model
+        .members
+        .iter()
+        .map(|m| if m.sags() { n.clamp(1, MAX_LINKS) } else { 1 })
+        .collect()
+}
+
+/// The inner joints of cable `m` cut into `links` links, at equal steps of unstressed length
+/// along its exact static curve between its ends at `pa` and `pb` (on the chord when it does
+/// not sag there); `u_a` is end a's displacement.
+fn joints(m: &Member, pa: Vec3, pb: Vec3, gravity: &Vec3, u_a: &Vec3, links: usize) -> Vec<Vec3> {
+    let chord = pb - pa;
+    let l0 = m.kind.rest_length();
+    let shape = respond(&m.kind, m.mass_per_length, &chord, gravity, u_a).and_then(|r| r.sag);
+    (1..links)
+        .map(|k| {
+            let s = l0 * k as f64 / links as f64;
+            match &shape {
+                Some(sag) => sag.point(&pa, s),
+                None => pa + chord * (s / l0),
+            }
+        })
+        .collect()
+}
+
 /// Links for every sagging cable when the highest frequency wanted is `highest_hz`, within
 /// the budget of joints.
 pub fn auto_links(model: &Model, eq: &Equilibrium, highest_hz: f64) -> Vec<usize> {
@@ -139,18 +166,7 @@ pub fn subdivide(model: &Model, eq: &Equilibrium, case: usize, links: &[usize]) 
             members_of[i] = vec![first];
             continue;
         }
-        let (pa, pb) = (positions[a], positions[b]);
-        let chord = pb - pa;
-        let shape = respond(&m.kind, m.mass_per_length, &chord, &gravity, &disp[a]).and_then(|r| r.sag);
-        let point = |s: f64| -> Vec3 {
-            match &shape {
-                Some(sag) => {
-                    let (x, z) = sag.cable.point_at(&sag.hang, s);
-                    pa + sag.horizontal * x + sag.up * z
-                }
-                None => pa + chord * (s / l0),
-            }
-        };
+        let points = joints(m, positions[a], positions[b], &gravity, &disp[a], n);
         nodes[a].mass += 0.5 * joint_mass;
         nodes[b].mass += 0.5 * joint_mass;
         let mut previous = a;
@@ -162,7 +178,7 @@ pub fn subdivide(model: &Model, eq: &Equilibrium, case: usize, links: &[usize]) 
                 while taken(&nodes, &id) {
                     id.push('~');
                 }
-                let at = point(l0 * k as f64 / n as f64);
+                let at = points[k - 1];
                 nodes.push(Node {
                     id,
                     position: at,
@@ -224,20 +240,9 @@ impl Subdivided {
                 continue;
             };
             let [a, b] = m.ends;
-            let (pa, pb) = (positions[a], positions[b]);
-            let chord = pb - pa;
-            let l0 = m.kind.rest_length();
-            let u_a = pa - original.nodes[a].position;
-            let shape = respond(&m.kind, m.mass_per_length, &chord, &gravity, &u_a).and_then(|r| r.sag);
-            for k in 1..c.links {
-                let s = l0 * k as f64 / c.links as f64;
-                out[next] = match &shape {
-                    Some(sag) => {
-                        let (x, z) = sag.cable.point_at(&sag.hang, s);
-                        pa + sag.horizontal * x + sag.up * z
-                    }
-                    None => pa + chord * (s / l0),
-                };
+            let u_a = positions[a] - original.nodes[a].position;
+            for p in joints(m, positions[a], positions[b], &gravity, &u_a, c.links) {
+                out[next] = p;
                 next += 1;
             }
         }
@@ -282,11 +287,7 @@ pub fn pluck_rig(
     links: CableLinks,
 ) -> Result<PluckRig, crate::solve::SolveError> {
     let per_member: Vec<usize> = match links {
-        CableLinks::Each(n) => model
-            .members
-            .iter()
-            .map(|m| if m.sags() { n.clamp(1, MAX_LINKS) } else { 1 })
-            .collect(),
+        CableLinks::Each(n) => each_links(model, n),
         CableLinks::Auto => auto_links(model, eq, f64::NAN),
     };
     let whole = |note: Option<String>| PluckRig {

@@ -25,6 +25,15 @@ pub struct Sag {
     pub up: Vec3,
 }
 
+impl Sag {
+    /// The point of the curve at unstressed arc length `s` from end a, end a being at `at_a`
+    /// (m).
+    pub fn point(&self, at_a: &Vec3, s: f64) -> Vec3 {
+        let (x, z) = self.cable.point_at(&self.hang, s);
+        at_a + self.horizontal * x + self.up * z
+    }
+}
+
 /// A member's response at one configuration.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Response {

@@ -191,15 +191,7 @@ impl<'m> Statics<'m> {
         if !system.fits(model, held) {
             return Self::build(model, held);
         }
-        let rate_scale = model.members.iter().map(|m| m.kind.rate()).fold(1e-300, f64::max);
-        Statics {
-            model,
-            system,
-            held,
-            rate_scale,
-            settings: SolveSettings::default(),
-            cancel: None,
-        }
+        Self::assembled(model, system, held)
     }
 
     /// The solver's structure, for [`Statics::with_system`] on the next variant of the rig.
@@ -208,7 +200,10 @@ impl<'m> Statics<'m> {
     }
 
     fn build(model: &'m Model, held: Option<usize>) -> Self {
-        let system = System::new(model, DofMap::new(model, held));
+        Self::assembled(model, System::new(model, DofMap::new(model, held)), held)
+    }
+
+    fn assembled(model: &'m Model, system: System, held: Option<usize>) -> Self {
         let rate_scale = model.members.iter().map(|m| m.kind.rate()).fold(1e-300, f64::max);
         Statics {
             model,
@@ -843,10 +838,7 @@ fn sag_result(s: &crate::element::response::Sag, at_a: Vec3) -> super::result::S
     let (c, h) = (&s.cable, &s.hang);
     let vb = h.v + c.q * c.l0;
     let curve = (0..=CURVE_POINTS)
-        .map(|k| {
-            let (x, z) = c.point_at(h, c.l0 * k as f64 / CURVE_POINTS as f64);
-            at_a + s.horizontal * x + s.up * z
-        })
+        .map(|k| s.point(&at_a, c.l0 * k as f64 / CURVE_POINTS as f64))
         .collect();
     super::result::SagResult {
         tension_a: h.h.hypot(h.v),
